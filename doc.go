@@ -1,0 +1,26 @@
+// Package tiltwell computes the confined levels of a quantum well with
+// infinitely high walls under a uniform electric field (the quantum-confined
+// Stark effect), by several methods behind one interface.
+//
+// The root package holds only the shared vocabulary: reduced units and the
+// physical scale ([Well]), the [Level] result, the [Solver] and [WaveSolver]
+// interfaces, the [Bound] kind of an error estimate, the sentinel errors
+// every method wraps, and helpers shared by all methods (argument checks,
+// mirror symmetry for negative fields). The methods live in their own
+// packages (exact, perturb, variational, wkb, basis); this package imports
+// none of them.
+//
+// # Reduced units
+//
+// A particle of effective mass m* in a well of width L, with a field F along
+// +z, feels the potential e F (z − L/2) inside the well (zero at the centre).
+// With ξ = z/L, the energy unit E₁ = ħ²π²/(2 m* L²) (the zero-field ground
+// level) and the field unit F₀ = E₁/(e L), the reduced energy η = E/E₁ and
+// reduced field f = F/F₀ obey
+//
+//	H = −(1/π²) d²/dξ² + f (ξ − ½),   φ(0) = φ(1) = 0.
+//
+// At f = 0 the levels are η_n = n² with φ_n(ξ) = √2 sin(nπξ). The spectrum
+// is even in f; wavefunctions mirror, φ_n(ξ; −f) = ±φ_n(1 − ξ; f), with the
+// sign fixed by the convention φ_n′(0) > 0.
+package tiltwell

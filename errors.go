@@ -1,0 +1,65 @@
+package tiltwell
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// Sentinel errors. Every method package wraps one of these, so that
+// errors.Is(err, tiltwell.ErrField) and the like work whichever method
+// returned the error.
+var (
+	// ErrField reports a field that is NaN or infinite.
+	ErrField = errors.New("tiltwell: field is not a finite number")
+	// ErrLevel reports a level count or level number the method cannot
+	// produce: k < 1, n < 1, or beyond the method's supported levels.
+	ErrLevel = errors.New("tiltwell: level not available")
+	// ErrOutOfRange reports a finite field outside the range where the
+	// method is valid or supported.
+	ErrOutOfRange = errors.New("tiltwell: field outside the method's range")
+	// ErrNoConvergence reports an iteration that did not converge.
+	ErrNoConvergence = errors.New("tiltwell: no convergence")
+	// ErrUnits reports a physical parameter (width, mass, tolerance) that
+	// is not a finite positive number.
+	ErrUnits = errors.New("tiltwell: invalid physical parameter")
+)
+
+// RangeError is returned for a finite field outside the range a method
+// supports. It wraps [ErrOutOfRange].
+type RangeError struct {
+	// Method names the method, such as "perturb".
+	Method string
+	// F is the reduced field that was asked for.
+	F float64
+	// Limit is the largest |f| the method accepts.
+	Limit float64
+}
+
+func (e *RangeError) Error() string {
+	return fmt.Sprintf("%s: |f| = %g beyond the supported limit %g: %v", e.Method, math.Abs(e.F), e.Limit, ErrOutOfRange)
+}
+
+// Unwrap returns [ErrOutOfRange].
+func (e *RangeError) Unwrap() error { return ErrOutOfRange }
+
+// CheckArgs validates the arguments of [Solver.Levels] for a method named
+// method that supports levels 1..maxLevel and fields |f| ≤ maxField. A
+// maxLevel or maxField of 0 means no limit. The returned error is prefixed
+// with method and wraps [ErrField], [ErrLevel] or [ErrOutOfRange] (as a
+// [*RangeError]); it is nil if the arguments are acceptable.
+func CheckArgs(method string, f float64, k, maxLevel int, maxField float64) error {
+	if math.IsNaN(f) || math.IsInf(f, 0) {
+		return fmt.Errorf("%s: f = %v: %w", method, f, ErrField)
+	}
+	if k < 1 {
+		return fmt.Errorf("%s: %d levels requested, need at least 1: %w", method, k, ErrLevel)
+	}
+	if maxLevel > 0 && k > maxLevel {
+		return fmt.Errorf("%s: %d levels requested, at most %d supported: %w", method, k, maxLevel, ErrLevel)
+	}
+	if maxField > 0 && math.Abs(f) > maxField {
+		return &RangeError{Method: method, F: f, Limit: maxField}
+	}
+	return nil
+}

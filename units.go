@@ -1,0 +1,89 @@
+package tiltwell
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/unit/constant"
+)
+
+// Physical constants, CODATA 2018 (E. Tiesinga, P. J. Mohr, D. B. Newell,
+// B. N. Taylor, "CODATA recommended values of the fundamental physical
+// constants: 2018", Rev. Mod. Phys. 93, 025010 (2021)).
+const (
+	// Planck is the Planck constant h in J s. The constant is exact.
+	Planck = float64(constant.Planck)
+	// ReducedPlanck is ħ = h/(2π) in J s. It is exact, being derived from
+	// an exact constant.
+	ReducedPlanck = Planck / (2 * math.Pi)
+	// ElementaryCharge is e in C. The constant is exact.
+	ElementaryCharge = float64(constant.ElementaryCharge)
+	// ElectronMass is the electron rest mass m₀ in kg, CODATA 2018
+	// 9.1093837015(28)e-31 kg (relative standard uncertainty 3.0e-10).
+	// gonum's unit/constant has no electron mass, so it is written here,
+	// once.
+	ElectronMass = 9.1093837015e-31
+)
+
+// Well is the physical scale of a well: its width and the effective mass of
+// the particle in it. It converts between reduced and physical units.
+//
+// The zero value is not usable; construct a Well with [NewWell].
+type Well struct {
+	// Width is the well width L in metres.
+	Width float64
+	// Mass is the effective mass m* in units of the electron mass m₀.
+	Mass float64
+}
+
+// NewWell returns the Well of width (metres) and effective mass (units of the
+// electron mass m₀). It returns an error wrapping [ErrUnits] if either is not
+// a finite positive number.
+func NewWell(width, mass float64) (Well, error) {
+	w := Well{Width: width, Mass: mass}
+	if err := w.validate(); err != nil {
+		return Well{}, err
+	}
+	return w, nil
+}
+
+func (w Well) validate() error {
+	if !(w.Width > 0) || math.IsInf(w.Width, 0) {
+		return fmt.Errorf("tiltwell: well width %v m: %w", w.Width, ErrUnits)
+	}
+	if !(w.Mass > 0) || math.IsInf(w.Mass, 0) {
+		return fmt.Errorf("tiltwell: effective mass %v m₀: %w", w.Mass, ErrUnits)
+	}
+	return nil
+}
+
+// EnergyUnit returns E₁ = ħ²π²/(2 m* L²) in joules, the ground level of the
+// well at zero field.
+func (w Well) EnergyUnit() float64 {
+	m := w.Mass * ElectronMass
+	hl := ReducedPlanck * math.Pi / w.Width // ħπ/L, kept O(1e-26) to avoid underflow in ħ²
+	return hl * hl / (2 * m)
+}
+
+// FieldUnit returns F₀ = E₁/(e L) in V/m, the field whose potential drop
+// across the well equals E₁/e.
+func (w Well) FieldUnit() float64 {
+	return w.EnergyUnit() / (ElementaryCharge * w.Width)
+}
+
+// Reduced returns the reduced field f = F/F₀ for a field F in V/m.
+func (w Well) Reduced(field float64) float64 { return field / w.FieldUnit() }
+
+// Field returns the field F = f F₀ in V/m for a reduced field f.
+func (w Well) Field(f float64) float64 { return f * w.FieldUnit() }
+
+// Joules returns the energy η E₁ in joules for a reduced energy η.
+func (w Well) Joules(eta float64) float64 { return eta * w.EnergyUnit() }
+
+// MilliEV returns the energy η E₁ in meV for a reduced energy η.
+func (w Well) MilliEV(eta float64) float64 {
+	return eta * w.EnergyUnit() / ElementaryCharge * 1e3
+}
+
+// KVPerCM converts a field in kV/cm, the unit device papers use, to V/m.
+func KVPerCM(kv float64) float64 { return kv * 1e5 }
