@@ -1,0 +1,2 @@
+// Package exact is the exact reference for the tilted infinite well.
+package exact
