@@ -1,0 +1,4 @@
+package exact
+
+// airytable.go is generated at 256 bits by the airygen program beside it.
+//go:generate go run ./internal/cmd/airygen
