@@ -1,0 +1,238 @@
+package exact
+
+import "math"
+
+// The node table airyNodes (airytable.go, written by internal/cmd/airygen
+// from 256-bit values) gives Ai, Ai′, Bi, Bi′ and the continuous phase Θ at
+// z_j = airyZMin + j·airyStep. Between nodes the functions are summed from
+// their Taylor series about the nearest node, |δ| ≤ airyStep/2. Because Ai
+// and Bi solve y″ = zy, the Taylor coefficients c_k of any solution about z_j
+// obey (DLMF 9.2.1)
+//
+//	(k+2)(k+1) c_(k+2) = z_j c_k + c_(k−1),
+//
+// so each node needs only its four values. The phase is taken from two
+// particular solutions, the rotations of (Bi, Ai) by the node's own vector:
+//
+//	c(z) = Bi_j Ai(z) − Ai_j Bi(z)    c(z_j) = 0,    c′(z_j) = −1/π
+//	d(z) = Bi_j Bi(z) + Ai_j Ai(z)    d(z_j) = M_j², d′(z_j) = Bi_j Bi′_j + Ai_j Ai′_j
+//
+// using the Wronskian W{Ai, Bi} = 1/π (DLMF 9.2.7). Then
+//
+//	Θ(z) = Θ_j + atan2(c(z), d(z)),   M²(z) = (c² + d²)/M_j²,
+//
+// with no cancellation: the angle is small and both series start at their
+// leading term exactly.
+
+// nTaylor terms of each Taylor series. At the table's ends |z| ≤ 20 and
+// |δ| ≤ 1/8, the k-th coefficient is below (√20/8)^k/k! relative, and
+// 0.56^18/18! ≈ 2e-21.
+const nTaylor = 18
+
+type nodeSeries struct {
+	z, theta, m2 float64
+	c, d         [nTaylor]float64 // phase series (see above)
+	ai, bi       [nTaylor]float64 // Taylor series of Ai and Bi
+}
+
+var series = buildSeries()
+
+func taylor(z, y0, y1 float64) (c [nTaylor]float64) {
+	c[0], c[1] = y0, y1
+	prev := 0.0 // c_(k−1)
+	for k := 0; k+2 < nTaylor; k++ {
+		c[k+2] = (z*c[k] + prev) / float64((k+2)*(k+1))
+		prev = c[k]
+	}
+	return c
+}
+
+func buildSeries() []nodeSeries {
+	s := make([]nodeSeries, len(airyNodes))
+	for j, nd := range airyNodes {
+		m2 := nd.ai*nd.ai + nd.bi*nd.bi
+		s[j] = nodeSeries{
+			z: nd.z, theta: nd.theta, m2: m2,
+			c:  taylor(nd.z, 0, -1/math.Pi),
+			d:  taylor(nd.z, m2, nd.bi*nd.bip+nd.ai*nd.aip),
+			ai: taylor(nd.z, nd.ai, nd.aip),
+			bi: taylor(nd.z, nd.bi, nd.bip),
+		}
+	}
+	return s
+}
+
+// node returns the table node nearest to z, which must lie in
+// (−negStart, posStart), and the offset δ = z − z_j.
+func node(z float64) (*nodeSeries, float64) {
+	j := int(math.Round((z - airyZMin) / airyStep))
+	j = min(max(j, 0), len(series)-1)
+	s := &series[j]
+	return s, z - s.z
+}
+
+// horner sums Σ c_k δ^k.
+func horner(c *[nTaylor]float64, d float64) float64 {
+	s := c[nTaylor-1]
+	for k := nTaylor - 2; k >= 0; k-- {
+		s = s*d + c[k]
+	}
+	return s
+}
+
+// hornerD sums Σ k c_k δ^(k−1), the derivative of the series.
+func hornerD(c *[nTaylor]float64, d float64) float64 {
+	s := float64(nTaylor-1) * c[nTaylor-1]
+	for k := nTaylor - 2; k >= 1; k-- {
+		s = s*d + float64(k)*c[k]
+	}
+	return s
+}
+
+// tablePhase returns Θ(z) and M²(z) for z in the table's range.
+func tablePhase(z float64) (theta, m2 float64) {
+	s, d := node(z)
+	// Both series together, so the two Horner chains interleave.
+	cs, ds := s.c[nTaylor-1], s.d[nTaylor-1]
+	for k := nTaylor - 2; k >= 0; k-- {
+		cs = cs*d + s.c[k]
+		ds = ds*d + s.d[k]
+	}
+	return s.theta + math.Atan2(cs, ds), (cs*cs + ds*ds) / s.m2
+}
+
+// phase returns the continuous phase Θ(z) = atan2(Ai(z), Bi(z)), Θ(0) = π/6
+// (DLMF 9.8.4, there written θ), and p(z) = 1/(π M²(z)) = −Θ′(z)
+// (DLMF 9.8.14). For z ≥ posStart, Θ underflows to 0 once
+// Ai/Bi < 1e-308, which is harmless: Θ is then far below the rounding of
+// any phase difference it enters.
+func phase(z float64) (theta, p float64) {
+	switch {
+	case z <= -negStart:
+		x := -z
+		sx := math.Sqrt(x)
+		_, tc, rr := negModPhase(x)
+		return math.Pi/4 + (2.0/3)*x*sx + tc, sx * (1 + rr)
+	case z >= posStart:
+		ai, _, bi, _, zeta := posScaled(z)
+		e := math.Exp(-2 * zeta)
+		r := ai / bi * e // Ai/Bi
+		// M² = Bi²(1 + (Ai/Bi)²).
+		return math.Atan(r), e / (math.Pi * bi * bi * (1 + r*r))
+	}
+	theta, m2 := tablePhase(z)
+	return theta, 1 / (math.Pi * m2)
+}
+
+// Airy returns the Airy functions Ai(z), Ai′(z), Bi(z) and Bi′(z) of a real
+// argument (DLMF §9.2).
+//
+// Accuracy: for −13 < z < 20 the values come from Taylor series about
+// table nodes computed at 256-bit precision and are accurate to a few units
+// in the last place of max(|Ai|, |Bi|) (so Ai near one of its zeros has an
+// absolute, not relative, error of that size). Beyond, the asymptotic
+// expansions DLMF 9.7.5–9.7.8 (z ≥ 20) and the modulus–phase forms DLMF
+// 9.8.20, 9.8.22 (z ≤ −13) are used; for large negative z the phase
+// (2/3)|z|^(3/2) is itself rounded, which limits Ai and Bi to an absolute
+// accuracy of about 1e-16·|z|^(3/2)·M(z) there.
+//
+// Special cases are:
+//
+//	Airy(+Inf) = 0, 0, +Inf, +Inf
+//	Airy(−Inf) = 0, NaN, 0, NaN
+//	Airy(NaN)  = NaN, NaN, NaN, NaN
+//	Bi and Bi′ overflow to +Inf for z > 104 (use [AiryScaled]).
+func Airy(z float64) (ai, aip, bi, bip float64) {
+	switch {
+	case math.IsNaN(z):
+		n := math.NaN()
+		return n, n, n, n
+	case math.IsInf(z, 1):
+		return 0, 0, math.Inf(1), math.Inf(1)
+	case math.IsInf(z, -1):
+		return 0, math.NaN(), 0, math.NaN()
+	case z >= posStart:
+		ai, aip, bi, bip, zeta := posScaled(z)
+		e := math.Exp(-zeta)
+		if zeta > 700 {
+			// e^ζ overflows; Bi and Bi′ are +Inf, Ai and Ai′ underflow
+			// gracefully through the product below.
+			return ai * e, aip * e, math.Inf(1), math.Inf(1)
+		}
+		return ai * e, aip * e, bi / e, bip / e
+	case z <= -negStart:
+		x := -z
+		m, th, mp := negMod(x)
+		sin, cos := math.Sincos(th)
+		// Ai = M sin θ, Bi = M cos θ (DLMF 9.8.1–9.8.2), θ′ = −1/(πM²).
+		return m * sin, mp*sin - cos/(math.Pi*m), m * cos, mp*cos + sin/(math.Pi*m)
+	}
+	s, d := node(z)
+	return horner(&s.ai, d), hornerD(&s.ai, d), horner(&s.bi, d), hornerD(&s.bi, d)
+}
+
+// negMod returns M(−x), θ(−x) and dM/dz at z = −x, for x ≥ negStart.
+func negMod(x float64) (m, theta, mp float64) {
+	sx := math.Sqrt(x)
+	w, tc, _ := negModPhase(x)
+	// π M² √x = w  ⇒  M = √(w/(π√x)).
+	m = math.Sqrt(w / (math.Pi * sx))
+	theta = math.Pi/4 + (2.0/3)*x*sx + tc
+	// dM/dx = M/2 · (w′/w − 1/(2x)); dM/dz = −dM/dx. negDW gives x·w′.
+	mp = -m / (2 * x) * (negDW(x)/w - 0.5)
+	return m, theta, mp
+}
+
+// AiryScaled returns the Airy functions scaled so that they neither overflow
+// nor underflow for large positive z:
+//
+//	e^ζ Ai(z), e^ζ Ai′(z), e^(−ζ) Bi(z), e^(−ζ) Bi′(z),   ζ = (2/3) z^(3/2)
+//
+// for z > 0 (DLMF 9.7.1), and the unscaled values for z ≤ 0. Accuracy as
+// for [Airy]. AiryScaled(NaN) returns NaNs; AiryScaled(+Inf) returns the
+// limits 0, −Inf, 0, +Inf of the leading terms... see the code; do not rely
+// on infinite arguments.
+func AiryScaled(z float64) (ai, aip, bi, bip float64) {
+	if z >= posStart {
+		ai, aip, bi, bip, _ = posScaled(z)
+		return ai, aip, bi, bip
+	}
+	ai, aip, bi, bip = Airy(z)
+	if z > 0 {
+		zeta := (2.0 / 3) * z * math.Sqrt(z)
+		e := math.Exp(zeta)
+		return ai * e, aip * e, bi / e, bip / e
+	}
+	return ai, aip, bi, bip
+}
+
+// ModulusPhase returns the modulus M(z) = √(Ai² + Bi²) and the continuous
+// phase θ(z) = atan2(Ai(z), Bi(z)) with θ(0) = π/6 (DLMF 9.8.3, 9.8.4 with
+// the branch continued from z = 0; θ decreases, θ(a_k) = kπ at the zeros a_k
+// of Ai, DLMF 9.9.1). M overflows to +Inf for z > 104; θ underflows to 0 for
+// large positive z.
+//
+// Special cases are:
+//
+//	ModulusPhase(+Inf) = +Inf, 0
+//	ModulusPhase(−Inf) = 0, +Inf
+//	ModulusPhase(NaN)  = NaN, NaN
+func ModulusPhase(z float64) (m, theta float64) {
+	switch {
+	case math.IsNaN(z):
+		return z, z
+	case math.IsInf(z, 1):
+		return z, 0
+	case math.IsInf(z, -1):
+		return 0, math.Inf(1)
+	case z <= -negStart:
+		m, theta, _ = negMod(-z)
+		return m, theta
+	case z >= posStart:
+		ai, _, bi, _, zeta := posScaled(z)
+		r := ai / bi * math.Exp(-2*zeta)
+		return bi * math.Exp(zeta) * math.Sqrt(1+r*r), math.Atan(r)
+	}
+	theta, m2 := tablePhase(z)
+	return math.Sqrt(m2), theta
+}
