@@ -7,10 +7,11 @@ import (
 	"time"
 )
 
-// Errors returned by [Choose].
+// Errors returned by [Choose] and [Pair.Sweep].
 var (
-	// ErrNoCandidates reports a call to [Choose] with no candidate solvers.
-	ErrNoCandidates = errors.New("tiltwell: no candidate solvers")
+	// ErrNoSolver reports a missing solver: an empty candidate list for
+	// [Choose], or a nil [Solver] where one is needed.
+	ErrNoSolver = errors.New("tiltwell: no solver given")
 	// ErrNoneMeets reports that no candidate's own error estimates met the
 	// tolerance; [Choose] still returns the report of every candidate.
 	ErrNoneMeets = errors.New("tiltwell: no candidate meets the tolerance")
@@ -92,7 +93,7 @@ const slowPass = 50 * time.Millisecond
 // include both ends.
 //
 // Choose returns an error, and no choice, for an empty candidate list
-// (wrapping [ErrNoCandidates]) or a nil Solver, for tol that is not a
+// or a nil Solver (wrapping [ErrNoSolver]), for tol that is not a
 // positive finite number ([ErrUnits]), for an empty field list or a NaN or
 // infinite field ([ErrField]), and for k < 1 ([ErrLevel]). If no candidate
 // meets the tolerance, Choose returns the Choice with every Trial filled
@@ -100,11 +101,11 @@ const slowPass = 50 * time.Millisecond
 // error from a candidate is recorded in its Trial, not returned.
 func Choose(candidates []Candidate, tol float64, fields []float64, k int) (Choice, error) {
 	if len(candidates) == 0 {
-		return Choice{}, fmt.Errorf("tiltwell: choose: %w", ErrNoCandidates)
+		return Choice{}, fmt.Errorf("tiltwell: choose: %w", ErrNoSolver)
 	}
 	for i, c := range candidates {
 		if c.Solver == nil {
-			return Choice{}, fmt.Errorf("tiltwell: choose: candidate %d (%q) has a nil Solver: %w", i, c.Name, ErrNoCandidates)
+			return Choice{}, fmt.Errorf("tiltwell: choose: candidate %d (%q) has a nil Solver: %w", i, c.Name, ErrNoSolver)
 		}
 	}
 	if !(tol > 0) || math.IsInf(tol, 0) {

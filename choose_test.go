@@ -193,9 +193,9 @@ func TestChooseBadInput(t *testing.T) {
 		k      int
 		want   error
 	}{
-		{"candidates=none", nil, 1e-3, fields, 1, tiltwell.ErrNoCandidates},
-		{"candidates=empty", []tiltwell.Candidate{}, 1e-3, fields, 1, tiltwell.ErrNoCandidates},
-		{"candidates=nil-solver", []tiltwell.Candidate{cheap, {Name: "nil"}}, 1e-3, fields, 1, tiltwell.ErrNoCandidates},
+		{"candidates=none", nil, 1e-3, fields, 1, tiltwell.ErrNoSolver},
+		{"candidates=empty", []tiltwell.Candidate{}, 1e-3, fields, 1, tiltwell.ErrNoSolver},
+		{"candidates=nil-solver", []tiltwell.Candidate{cheap, {Name: "nil"}}, 1e-3, fields, 1, tiltwell.ErrNoSolver},
 		{"tol=0", ok, 0, fields, 1, tiltwell.ErrUnits},
 		{"tol=-1e-3", ok, -1e-3, fields, 1, tiltwell.ErrUnits},
 		{"tol=NaN", ok, math.NaN(), fields, 1, tiltwell.ErrUnits},
