@@ -79,6 +79,7 @@ type state struct {
 	p0, p1     float64 // 1/(π M²) at z₀ and z₁
 	th1        float64 // Θ(z₁) (separate regime only)
 	asym       bool    // both walls in the modulus–phase range
+	gp         float64 // ∂G/∂η at the last evaluation
 	err        float64
 	iterations int
 }
@@ -120,11 +121,12 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 // solve finds level n at field f > 0 with η > floor (the previous level, or
 // −Inf).
 func solve(f float64, n int, floor float64) (state, error) {
-	return solveAlpha(f, math.Cbrt(math.Pi*math.Pi*f), n, floor)
+	return solveAlpha(f, math.Cbrt(math.Pi*math.Pi*f), n, floor, math.NaN())
 }
 
-// solveAlpha is solve with α = (π² f)^(1/3) precomputed.
-func solveAlpha(f, alpha float64, n int, floor float64) (state, error) {
+// solveAlpha is solve with α = (π² f)^(1/3) precomputed and an optional
+// starting value hint (NaN for none).
+func solveAlpha(f, alpha float64, n int, floor, hint float64) (state, error) {
 	st := state{f: f, n: n, alpha: alpha}
 	nn := float64(n) * float64(n)
 	hi := nn + f/2
@@ -132,12 +134,19 @@ func solveAlpha(f, alpha float64, n int, floor float64) (state, error) {
 	// (f/π)^(2/3) = α²/π².
 	tri := -f/2 - airyZero(n)*(alpha*alpha/(math.Pi*math.Pi))
 	lo := max(nn-f/2, tri, floor)
-	eta := guess(f, n, tri, lo, hi)
+	eta := hint
+	if alpha+airyZero(n) > 6 || !(hint > lo && hint < hi) {
+		// z₁ = α + a_n > 6 at the triangular level: the far wall moves the
+		// level by less than Θ(6) ≈ 1e-9 relative, so the triangular
+		// level is the better start.
+		eta = guess(f, n, tri, lo, hi)
+	}
 	var prevEta, prevGp, step float64
 	haveprev := false
 	for it := 1; it <= 100; it++ {
 		st.iterations = it
 		g, gp, gerr := st.eval(eta)
+		st.gp = gp
 		if g > 0 {
 			hi = eta
 		} else {
@@ -211,19 +220,34 @@ func (Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, 
 	}
 	af, _ := tiltwell.Fold(f)
 	alpha := math.Cbrt(math.Pi * math.Pi * af)
-	floor := math.Inf(-1)
+	// Levels are smooth in n (n enters the quantisation condition as a
+	// continuous parameter, with dη/dn = π/(∂G/∂η)), so from the third
+	// level on the start is the cubic Hermite extrapolation from the two
+	// levels below.
+	var e1, d1, e2, d2 float64
 	for n := 1; n <= k; n++ {
-		lv, err := level(af, alpha, n, floor)
+		hint := math.NaN()
+		if n >= 3 {
+			// Hermite cubic through (n−2, e2, d2), (n−1, e1, d1),
+			// evaluated at n (one step beyond): p(2) for nodes at 0, 1.
+			hint = 5*e2 - 4*e1 + 2*d2 + 4*d1
+		}
+		floor := math.Inf(-1)
+		if n > 1 {
+			floor = e1
+		}
+		lv, gp, err := level(af, alpha, n, floor, hint)
 		if err != nil {
 			return dst[:0], err
 		}
-		floor = lv.Energy
+		e2, d2 = e1, d1
+		e1, d1 = lv.Energy, math.Pi/gp
 		dst = append(dst, lv)
 	}
 	return dst, nil
 }
 
-func level(af, alpha float64, n int, floor float64) (tiltwell.Level, error) {
+func level(af, alpha float64, n int, floor, hint float64) (tiltwell.Level, float64, error) {
 	nn := float64(n) * float64(n)
 	if af < tinyField {
 		e := nn + secondOrder(n)*af*af
@@ -231,13 +255,13 @@ func level(af, alpha float64, n int, floor float64) (tiltwell.Level, error) {
 		if af > 0 {
 			err = eps * nn
 		}
-		return tiltwell.Level{N: n, Energy: e, Err: err, Bound: tiltwell.Estimate}, nil
+		return tiltwell.Level{N: n, Energy: e, Err: err, Bound: tiltwell.Estimate}, math.Pi / (2 * float64(n)), nil
 	}
-	st, err := solveAlpha(af, alpha, n, floor)
+	st, err := solveAlpha(af, alpha, n, floor, hint)
 	if err != nil {
-		return tiltwell.Level{}, err
+		return tiltwell.Level{}, 0, err
 	}
-	return tiltwell.Level{N: n, Energy: st.eta, Err: st.err, Bound: tiltwell.Estimate}, nil
+	return tiltwell.Level{N: n, Energy: st.eta, Err: st.err, Bound: tiltwell.Estimate}, st.gp, nil
 }
 
 // Level returns level n (1 for the ground level) at reduced field f. Errors
@@ -247,5 +271,6 @@ func (Solver) Level(f float64, n int) (tiltwell.Level, error) {
 		return tiltwell.Level{}, err
 	}
 	af, _ := tiltwell.Fold(f)
-	return level(af, math.Cbrt(math.Pi*math.Pi*af), n, math.Inf(-1))
+	lv, _, err := level(af, math.Cbrt(math.Pi*math.Pi*af), n, math.Inf(-1), math.NaN())
+	return lv, err
 }
