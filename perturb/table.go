@@ -1,0 +1,128 @@
+package perturb
+
+import (
+	"math"
+	"sync"
+)
+
+// Validity of the series. The estimate of an order-P result is trusted up to
+// the field where either
+//
+//   - the last two computed terms, max(|c_(J−2)| f^(J−2), |c_J| f^J), reach
+//     tailFraction of the first neglected term |c_(2P)| f^(2P): beyond that
+//     the unknown orders past J are no longer negligible; or
+//   - the first neglected term reaches gapFraction of the distance from n²
+//     to the nearest other unperturbed level (3 for n = 1, 2n − 1 above):
+//     the level is then no longer a small perturbation of n².
+const (
+	tailFraction = 0.05
+	gapFraction  = 0.1
+)
+
+// blockSize is the number of levels whose series are built together, on
+// first use of any of them.
+const blockSize = 64
+
+// entry is the precomputed series of one level. It must not be modified.
+type entry struct {
+	nn  float64        // n²
+	c   [nCoef]float64 // c₂ (closed form), c₄, …, c_J
+	lim [2]float64     // validity limit for Order 1 and Order 2
+}
+
+type block [blockSize]entry
+
+// blocks[i] returns the entries of levels i·blockSize + 1 … (i+1)·blockSize,
+// built once and shared read-only by all goroutines.
+var blocks = func() (b [(MaxLevels + blockSize - 1) / blockSize]func() *block) {
+	for i := range b {
+		b[i] = sync.OnceValue(func() *block { return buildBlock(i) })
+	}
+	return b
+}()
+
+func buildBlock(i int) *block {
+	b := new(block)
+	for j := range b {
+		n := i*blockSize + j + 1
+		if n > MaxLevels {
+			break
+		}
+		e := &b[j]
+		e.nn = float64(n) * float64(n)
+		e.c, _ = series(n)
+		e.c[0] = secondOrder(n) // the closed form; the recursion agrees to rounding
+		gap := 2*float64(n) - 1
+		if n == 1 {
+			gap = 3
+		}
+		for p := 1; p <= 2; p++ {
+			e.lim[p-1] = limit(&e.c, p, gap)
+		}
+	}
+	return b
+}
+
+// entryOf returns the entry of level n, 1 ≤ n ≤ MaxLevels.
+func entryOf(n int) *entry {
+	return &blocks[(n-1)/blockSize]()[(n-1)%blockSize]
+}
+
+// limit returns the validity limit of the order-p result (see tailFraction
+// and gapFraction) for the coefficients c and the unperturbed gap.
+func limit(c *[nCoef]float64, p int, gap float64) float64 {
+	j0 := 2 * p       // order of the first neglected term
+	lead := c[j0/2-1] // its coefficient
+	lim := math.Pow(gapFraction*gap/math.Abs(lead), 1/float64(j0))
+	for j := maxOrder - 2; j <= maxOrder; j += 2 {
+		if cj := math.Abs(c[j/2-1]); cj > 0 {
+			lim = math.Min(lim, math.Pow(tailFraction*math.Abs(lead)/cj, 1/float64(j-j0)))
+		}
+	}
+	return lim
+}
+
+// secondOrder returns C_n = (n²π² − 15)/(48 n⁴ π²) (see the package
+// documentation for its derivation).
+func secondOrder(n int) float64 {
+	nn := float64(n) * float64(n)
+	return (nn*math.Pi*math.Pi - 15) / (48 * nn * nn * math.Pi * math.Pi)
+}
+
+// estimate returns the error estimate of the order-p energy of e at field
+// f ≥ 0, before rounding:
+//
+//	|Σ_(2p<j≤J) c_j f^j| + max(|c_(J−2)| f^(J−2), |c_J| f^J).
+func (e *entry) estimate(p int, f float64) float64 {
+	f2 := f * f
+	pw := f2 // f^(2i+2)
+	var s, last, prev float64
+	for i, c := range e.c {
+		t := c * pw
+		if i >= p-1 {
+			s += t
+		}
+		prev, last = last, t
+		pw *= f2
+	}
+	return math.Abs(s) + math.Max(math.Abs(prev), math.Abs(last))
+}
+
+// dipoleEstimate returns the error estimate of the dipole 2c₂f at f ≥ 0,
+// before rounding: the same construction for dη/df = Σ j c_j f^(j−1),
+//
+//	|Σ_(4≤j≤J) j c_j f^(j−1)| + max((J−2)|c_(J−2)| f^(J−3), J|c_J| f^(J−1)).
+func (e *entry) dipoleEstimate(f float64) float64 {
+	f2 := f * f
+	pw := f // f^(2i+1)
+	var s, last, prev float64
+	for i, c := range e.c {
+		t := float64(2*i+2) * c * pw
+		if i >= 1 {
+			s += t
+		}
+		prev, last = last, t
+		pw *= f2
+	}
+	return math.Abs(s) + math.Max(math.Abs(prev), math.Abs(last))
+}
