@@ -220,7 +220,7 @@ func TestTableCheck(t *testing.T) {
 			small.Levels = append(small.Levels, tab.Levels[i][:3])
 		}
 	}
-	if r, err := small.Check(sineBasis{size: 80, claim: 1e-8}, 1e-9); err != nil || !r.OK() {
+	if r, err := small.Check(sineBasis{size: 40, claim: 1e-8}, 1e-9); err != nil || !r.OK() {
 		t.Errorf("sine basis against the saved table: %v\n%s", err, r)
 	}
 	// Wrong by 1e-6.
