@@ -80,7 +80,7 @@ func phaseM2(z float64) (theta, m2 float64) {
 //	|f| < 1e-20: φ_n(ξ) = √2 sin(nπξ)
 //	f < 0: φ_n(ξ; f) = (−1)^(n+1) φ_n(1 − ξ; |f|) ([tiltwell.Mirror])
 func (Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
-	w, err := wave(f, n)
+	w, err := newWave(f, n)
 	if err != nil {
 		return nil, err
 	}
@@ -90,7 +90,7 @@ func (Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	return w, nil
 }
 
-func wave(f float64, n int) (*Wave, error) {
+func newWave(f float64, n int) (*Wave, error) {
 	if err := tiltwell.CheckArgs("exact", f, n, MaxLevels, MaxField); err != nil {
 		return nil, err
 	}
