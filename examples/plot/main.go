@@ -1,0 +1,221 @@
+// Plot draws the levels of the tilted infinite well against the reduced
+// field for each method, and each method's error against the field on a
+// log scale: its true error against the exact reference (solid) and its
+// own estimate (dashed). The picture is written as PNG or SVG, chosen by
+// the file extension, to the path given by -o.
+//
+// The fields are reduced (f in F₀, energies η in E₁), so the picture holds
+// for any width and mass; no physical data is involved.
+//
+// Usage:
+//
+//	go run ./examples/plot -o docs/levels.svg [-fmax 30] [-n 3]
+package main
+
+import (
+	"flag"
+	"fmt"
+	"image/color"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/basis"
+	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/perturb"
+)
+
+// method is one curve family of the picture.
+type method struct {
+	name  string
+	s     tiltwell.Solver
+	color color.Color
+}
+
+func methods() []method {
+	return []method{
+		{"exact", exact.Solver{}, color.RGBA{A: 255}},
+		{"perturb1", perturb.Solver{Order: 1}, color.RGBA{R: 0xd6, G: 0x27, B: 0x28, A: 255}},
+		{"perturb2", perturb.Solver{Order: 2}, color.RGBA{R: 0xff, G: 0x7f, B: 0x0e, A: 255}},
+		{"basis", basis.Solver{}, color.RGBA{R: 0x1f, G: 0x77, B: 0xb4, A: 255}},
+	}
+}
+
+// errFloor is where zero errors are drawn on the log axis: below float64
+// resolution of the energies plotted.
+const errFloor = 1e-17
+
+func main() {
+	out := flag.String("o", "levels.png", "output file, .png or .svg")
+	fmax := flag.Float64("fmax", 30, "largest reduced field")
+	k := flag.Int("n", 3, "number of levels")
+	flag.Parse()
+	ext := strings.TrimPrefix(strings.ToLower(filepath.Ext(*out)), ".")
+	switch {
+	case ext != "png" && ext != "svg":
+		fail(fmt.Errorf("-o %q: want a .png or .svg file", *out))
+	case !(*fmax > 0) || math.IsInf(*fmax, 0) || *fmax > exact.MaxField:
+		fail(fmt.Errorf("-fmax %v: want 0 < fmax ≤ %g", *fmax, float64(exact.MaxField)))
+	case *k < 1 || *k > 10:
+		fail(fmt.Errorf("-n %d: want 1 to 10 levels", *k))
+	}
+	levels, errs, err := curves(*fmax, *k)
+	if err != nil {
+		fail(err)
+	}
+	c, err := draw.NewFormattedCanvas(24*vg.Centimeter, 10*vg.Centimeter, ext)
+	if err != nil {
+		fail(err)
+	}
+	dc := draw.New(c)
+	plots := [][]*plot.Plot{{levels, errs}}
+	tiles := draw.Tiles{Rows: 1, Cols: 2, PadX: vg.Centimeter, PadTop: 2 * vg.Millimeter, PadBottom: 2 * vg.Millimeter, PadLeft: 2 * vg.Millimeter, PadRight: 2 * vg.Millimeter}
+	cs := plot.Align(plots, tiles, dc)
+	levels.Draw(cs[0][0])
+	errs.Draw(cs[0][1])
+	f, err := os.Create(*out)
+	if err != nil {
+		fail(err)
+	}
+	if _, err := c.WriteTo(f); err != nil {
+		f.Close()
+		fail(err)
+	}
+	if err := f.Close(); err != nil {
+		fail(err)
+	}
+}
+
+func fail(err error) {
+	fmt.Fprintln(os.Stderr, "plot:", err)
+	os.Exit(2)
+}
+
+// curves computes both panels over 0 ≤ f ≤ fmax.
+func curves(fmax float64, k int) (levels, errs *plot.Plot, err error) {
+	const samples = 121
+	levels = plot.New()
+	levels.Title.Text = fmt.Sprintf("lowest %d levels", k)
+	levels.X.Label.Text = "reduced field f = F/F₀"
+	levels.Y.Label.Text = "energy η = E/E₁"
+	levels.Legend.Top = false
+	levels.Legend.Left = true
+	levels.Legend.XOffs = vg.Millimeter
+	levels.Legend.YOffs = vg.Millimeter
+	levels.Add(plotter.NewGrid())
+
+	errs = plot.New()
+	errs.Title.Text = "worst error: true (solid), own estimate (dashed)"
+	errs.X.Label.Text = "reduced field f = F/F₀"
+	errs.Y.Label.Text = "|error| in E₁"
+	errs.Y.Scale = plot.LogScale{}
+	errs.Y.Tick.Marker = decades{every: 2}
+	errs.Legend.Top = true
+	errs.Legend.Left = false
+	errs.Legend.XOffs = -vg.Millimeter
+	errs.Legend.YOffs = -2 * vg.Millimeter
+	errs.Add(plotter.NewGrid())
+
+	fields := make([]float64, samples)
+	for i := range fields {
+		fields[i] = fmax * float64(i) / (samples - 1)
+	}
+	ref := make([][]tiltwell.Level, samples)
+	for i, f := range fields {
+		if ref[i], err = (exact.Solver{}).Levels(nil, f, k); err != nil {
+			return nil, nil, err
+		}
+	}
+	for mi, m := range methods() {
+		// Each level is a run of points where the method answers within
+		// its range; a method that stops is drawn up to where it stops.
+		lv := make([]plotter.XYs, k)
+		var trueErr, estErr plotter.XYs
+		dst := make([]tiltwell.Level, 0, k)
+		for i, f := range fields {
+			dst, err = m.s.Levels(dst, f, k)
+			if err != nil {
+				continue
+			}
+			worstTrue, worstEst := 0.0, 0.0
+			for n, l := range dst {
+				lv[n] = append(lv[n], plotter.XY{X: f, Y: l.Energy})
+				worstTrue = math.Max(worstTrue, math.Abs(l.Energy-ref[i][n].Energy))
+				worstEst = math.Max(worstEst, l.Err)
+			}
+			trueErr = append(trueErr, plotter.XY{X: f, Y: math.Max(worstTrue, errFloor)})
+			estErr = append(estErr, plotter.XY{X: f, Y: math.Max(worstEst, errFloor)})
+		}
+		for n, pts := range lv {
+			if len(pts) == 0 {
+				continue
+			}
+			l, err := plotter.NewLine(pts)
+			if err != nil {
+				return nil, nil, err
+			}
+			l.Color = m.color
+			l.Width = vg.Points(1.2)
+			if mi > 0 {
+				l.Dashes = []vg.Length{vg.Points(4), vg.Points(2)}
+			}
+			levels.Add(l)
+			if n == 0 {
+				levels.Legend.Add(m.name, l)
+			}
+		}
+		if m.name == "exact" {
+			// Its true error is zero by definition; draw its estimate.
+			trueErr = nil
+		}
+		if len(trueErr) > 0 {
+			l, err := plotter.NewLine(trueErr)
+			if err != nil {
+				return nil, nil, err
+			}
+			l.Color = m.color
+			l.Width = vg.Points(1.2)
+			errs.Add(l)
+			errs.Legend.Add(m.name, l)
+		}
+		if len(estErr) > 0 {
+			l, err := plotter.NewLine(estErr)
+			if err != nil {
+				return nil, nil, err
+			}
+			l.Color = m.color
+			l.Width = vg.Points(1)
+			l.Dashes = []vg.Length{vg.Points(3), vg.Points(2)}
+			errs.Add(l)
+			if m.name == "exact" {
+				errs.Legend.Add("exact (estimate)", l)
+			}
+		}
+	}
+	errs.Y.Min = errFloor
+	return levels, errs, nil
+}
+
+// decades marks every power of ten on a log axis and labels every few.
+type decades struct{ every int }
+
+// Ticks returns the ticks for the range [min, max].
+func (d decades) Ticks(min, max float64) []plot.Tick {
+	lo, hi := int(math.Floor(math.Log10(min))), int(math.Ceil(math.Log10(max)))
+	var ts []plot.Tick
+	for e := lo; e <= hi; e++ {
+		t := plot.Tick{Value: math.Pow(10, float64(e))}
+		if e%d.every == 0 {
+			t.Label = fmt.Sprintf("1e%d", e)
+		}
+		ts = append(ts, t)
+	}
+	return ts
+}
