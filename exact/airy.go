@@ -31,6 +31,7 @@ const nTaylor = 18
 
 type nodeSeries struct {
 	z, theta, m2 float64
+	thetaLo      float64 // Θ_j − theta, to 106 bits in all
 	c, d         [nTaylor]float64 // phase series (see above)
 	ai, bi       [nTaylor]float64 // Taylor series of Ai and Bi
 }
@@ -52,7 +53,7 @@ func buildSeries() []nodeSeries {
 	for j, nd := range airyNodes {
 		m2 := nd.ai*nd.ai + nd.bi*nd.bi
 		s[j] = nodeSeries{
-			z: nd.z, theta: nd.theta, m2: m2,
+			z: nd.z, theta: nd.theta, thetaLo: airyThetaLo[j], m2: m2,
 			c:  taylor(nd.z, 0, -1/math.Pi),
 			d:  taylor(nd.z, m2, nd.bi*nd.bip+nd.ai*nd.aip),
 			ai: taylor(nd.z, nd.ai, nd.aip),
@@ -99,6 +100,36 @@ func tablePhase(z float64) (theta, m2 float64) {
 		ds = ds*d + s.d[k]
 	}
 	return s.theta + math.Atan2(cs, ds), (cs*cs + ds*ds) / s.m2
+}
+
+// phaseDD returns the continuous phase Θ(z) in double-double and
+// p(z) = 1/(π M²(z)) for z = zd.hi + zd.lo, like [phase] but without the
+// rounding of the large part of Θ: in the table range Θ_j is stored to 106
+// bits and only the small angle atan2(c, d) is rounded; in the modulus–phase
+// range π/4 + (2/3)x^(3/2) is formed in double-double.
+func phaseDD(zd dd) (theta dd, p float64) {
+	z := zd.hi
+	switch {
+	case z <= -negStart:
+		x := ddNeg(zd)
+		sx := ddSqrt(x)
+		tc, rr := negPhaseCorr(x.hi)
+		lead := ddMul(ddMul(x, sx), ddTwo3)
+		return ddAdd(ddAdd(ddPi4, lead), dd{tc, 0}), sx.hi * (1 + rr)
+	case z >= posStart:
+		th, p := phase(z)
+		return dd{th, 0}, p
+	}
+	j := int(math.Round((z - airyZMin) / airyStep))
+	j = min(max(j, 0), len(series)-1)
+	s := &series[j]
+	d := (z - s.z) + zd.lo // z − z_j is exact: |z − z_j| ≤ 1/8
+	cs, ds := s.c[nTaylor-1], s.d[nTaylor-1]
+	for k := nTaylor - 2; k >= 0; k-- {
+		cs = cs*d + s.c[k]
+		ds = ds*d + s.d[k]
+	}
+	return ddAdd(dd{s.theta, s.thetaLo}, dd{math.Atan2(cs, ds), 0}), s.m2 / (math.Pi * (cs*cs + ds*ds))
 }
 
 // phase returns the continuous phase Θ(z) = atan2(Ai(z), Bi(z)), Θ(0) = π/6

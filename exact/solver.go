@@ -72,9 +72,9 @@ func secondOrder(n int) float64 {
 
 // state is a solved level: everything the wavefunction and dipole need.
 type state struct {
-	f, eta     float64
+	wallScale
+	eta        float64
 	n          int
-	alpha      float64 // (π² f)^(1/3)
 	x0, x1     float64 // −z₀, −z₁; x₀ = x₁ + α
 	p0, p1     float64 // 1/(π M²) at z₀ and z₁
 	th1        float64 // Θ(z₁) (separate regime only)
@@ -84,56 +84,85 @@ type state struct {
 	iterations int
 }
 
+// wallScale holds the per-field constants of the level equation: α =
+// (π² f)^(1/3) in double-double, its float64 value and c = α/f, so that the
+// wall arguments x₀ = −z₀ = cη + α/2 and x₁ = −z₁ = cη − α/2 are formed in
+// double-double from one exact product cη.
+type wallScale struct {
+	f, alpha, c float64
+	ad          dd
+}
+
+func newScale(f float64) wallScale {
+	if f == 0 {
+		return wallScale{}
+	}
+	ad := ddCbrt(ddMulF(ddPi2, f))
+	return wallScale{f: f, alpha: ad.hi, c: ad.hi / f, ad: ad}
+}
+
 // eval evaluates G(η) = Θ(z₀) − Θ(z₁) − nπ and fills st with the phase data
 // at η. It returns G, ∂G/∂η and an estimate of the absolute rounding error
 // of G.
 func (st *state) eval(eta float64) (g, gp, gerr float64) {
 	f, a := st.f, st.alpha
-	x1 := a * (eta/f - 0.5)
-	x0 := x1 + a
-	st.x0, st.x1 = x0, x1
-	np := float64(st.n) * math.Pi
-	if x1 >= negStart {
+	p, e := twoProd(st.c, eta)
+	ce := dd{p, e}
+	half := dd{st.ad.hi / 2, st.ad.lo / 2}
+	x0, x1 := ddAdd(ce, half), ddAdd(ce, ddNeg(half))
+	st.x0, st.x1 = x0.hi, x1.hi
+	np := ddMulF(ddPi, float64(st.n))
+	if x1.hi >= negStart {
+		// Both walls in the modulus–phase range: the leading phase
+		// difference (2/3)(x₀^(3/2) − x₁^(3/2)) in the form
+		// (2/3)α(x₀ + √(x₀x₁) + x₁)/(√x₀ + √x₁), which does not cancel
+		// at weak field, in double-double.
 		st.asym = true
-		s0, s1 := math.Sqrt(x0), math.Sqrt(x1)
-		tc0, rr0 := negPhaseCorr(x0)
-		tc1, rr1 := negPhaseCorr(x1)
-		lead := (2.0 / 3) * a * (x0 + s0*s1 + x1) / (s0 + s1)
-		g = lead - np + (tc0 - tc1)
-		st.p0, st.p1 = s0*(1+rr0), s1*(1+rr1)
-		dp := a/(s0+s1) + (s0*rr0 - s1*rr1)
+		s0, s1 := ddSqrt(x0), ddSqrt(x1)
+		tc0, rr0 := negPhaseCorr(x0.hi)
+		tc1, rr1 := negPhaseCorr(x1.hi)
+		num := ddAdd(ddAdd(x0, x1), ddSqrt(ddMul(x0, x1)))
+		lead := ddMul(ddDiv(ddMul(num, st.ad), ddAdd(s0, s1)), ddTwo3)
+		g = ddAdd(ddAdd(lead, ddNeg(np)), dd{tc0 - tc1, 0}).hi
+		st.p0, st.p1 = s0.hi*(1+rr0), s1.hi*(1+rr1)
+		dp := a/(s0.hi+s1.hi) + (s0.hi*rr0 - s1.hi*rr1)
 		gp = a / f * dp
-		gerr = eps * (4*np + 2*math.Abs(tc0) + 2*math.Abs(tc1))
+		gerr = eps * (1 + 2*math.Abs(tc0) + 2*math.Abs(tc1) + 1e-3*np.hi)
 		return g, gp, gerr
 	}
 	st.asym = false
-	th0, p0 := phase(-x0)
-	th1, p1 := phase(-x1)
-	st.p0, st.p1, st.th1 = p0, p1, th1
-	g = th0 - th1 - np
+	th0, p0 := phaseDD(ddNeg(x0))
+	th1, p1 := phaseDD(ddNeg(x1))
+	st.p0, st.p1, st.th1 = p0, p1, th1.hi
+	g = ddAdd(ddAdd(th0, ddNeg(th1)), ddNeg(np)).hi
 	gp = a / f * (p0 - p1)
-	// Rounding of the two phases (a few ulps each, relative to their size)
-	// and of the arguments z (ε|z| each, moved by Θ′ = −p).
-	gerr = eps * (2*(math.Abs(th0)+math.Abs(th1)+np) + 2*(p0*math.Abs(x0)+p1*math.Abs(x1)))
+	// Each phase is Θ_j (106 bits) plus a rounded angle below 1/2, or a
+	// double-double leading term plus a rounded correction.
+	gerr = 4 * eps
 	return g, gp, gerr
 }
 
 // solve finds level n at field f > 0 with η > floor (the previous level, or
 // −Inf).
 func solve(f float64, n int, floor float64) (state, error) {
-	return solveAlpha(f, math.Cbrt(math.Pi*math.Pi*f), n, floor, math.NaN())
+	return solveScaled(newScale(f), n, floor, math.NaN())
 }
 
-// solveAlpha is solve with α = (π² f)^(1/3) precomputed and an optional
+// solveScaled is solve with the field constants precomputed and an optional
 // starting value hint (NaN for none).
-func solveAlpha(f, alpha float64, n int, floor, hint float64) (state, error) {
-	st := state{f: f, n: n, alpha: alpha}
+func solveScaled(sc wallScale, n int, floor, hint float64) (state, error) {
+	f, alpha := sc.f, sc.alpha
+	st := state{wallScale: sc, n: n}
 	nn := float64(n) * float64(n)
 	hi := nn + f/2
 	// The triangular-well level −f/2 + |a_n| (f/π)^(2/3), with
 	// (f/π)^(2/3) = α²/π².
 	tri := -f/2 - airyZero(n)*(alpha*alpha/(math.Pi*math.Pi))
-	lo := max(nn-f/2, tri, floor)
+	// The bounds are computed in float64; widen them by their rounding so
+	// the bracket stays valid.
+	margin := 8 * eps * (f + nn + math.Abs(tri))
+	lo := max(nn-f/2, tri, floor) - margin
+	hi += margin
 	eta := hint
 	if alpha+airyZero(n) > 6 || !(hint > lo && hint < hi) {
 		// z₁ = α + a_n > 6 at the triangular level: the far wall moves the
@@ -172,7 +201,14 @@ func solveAlpha(f, alpha float64, n int, floor, hint float64) (state, error) {
 		}
 		prevEta, prevGp, haveprev = eta, gp, true
 		if !(next > lo && next < hi) {
-			eta = 0.5 * (lo + hi)
+			mid := 0.5 * (lo + hi)
+			if mid == lo || mid == hi {
+				// The bracket is down to adjacent floats.
+				st.eta = eta
+				st.err = 2*gerr/gp + 2*ulp + (hi - lo)
+				return st, nil
+			}
+			eta = mid
 			continue
 		}
 		if math.Abs(step) <= 1e-9*max(1, math.Abs(next)) && curv > 0 {
@@ -219,7 +255,7 @@ func (Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, 
 		return dst, err
 	}
 	af, _ := tiltwell.Fold(f)
-	alpha := math.Cbrt(math.Pi * math.Pi * af)
+	sc := newScale(af)
 	// Levels are smooth in n (n enters the quantisation condition as a
 	// continuous parameter, with dη/dn = π/(∂G/∂η)), so from the third
 	// level on the start is the cubic Hermite extrapolation from the two
@@ -236,7 +272,7 @@ func (Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, 
 		if n > 1 {
 			floor = e1
 		}
-		lv, gp, err := level(af, alpha, n, floor, hint)
+		lv, gp, err := level(sc, n, floor, hint)
 		if err != nil {
 			return dst[:0], err
 		}
@@ -247,7 +283,8 @@ func (Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, 
 	return dst, nil
 }
 
-func level(af, alpha float64, n int, floor, hint float64) (tiltwell.Level, float64, error) {
+func level(sc wallScale, n int, floor, hint float64) (tiltwell.Level, float64, error) {
+	af := sc.f
 	nn := float64(n) * float64(n)
 	if af < tinyField {
 		e := nn + secondOrder(n)*af*af
@@ -257,7 +294,7 @@ func level(af, alpha float64, n int, floor, hint float64) (tiltwell.Level, float
 		}
 		return tiltwell.Level{N: n, Energy: e, Err: err, Bound: tiltwell.Estimate}, math.Pi / (2 * float64(n)), nil
 	}
-	st, err := solveAlpha(af, alpha, n, floor, hint)
+	st, err := solveScaled(sc, n, floor, hint)
 	if err != nil {
 		return tiltwell.Level{}, 0, err
 	}
@@ -271,6 +308,6 @@ func (Solver) Level(f float64, n int) (tiltwell.Level, error) {
 		return tiltwell.Level{}, err
 	}
 	af, _ := tiltwell.Fold(f)
-	lv, _, err := level(af, math.Cbrt(math.Pi*math.Pi*af), n, math.Inf(-1), math.NaN())
+	lv, _, err := level(newScale(af), n, math.Inf(-1), math.NaN())
 	return lv, err
 }
