@@ -31,7 +31,7 @@ const nTaylor = 18
 
 type nodeSeries struct {
 	z, theta, m2 float64
-	thetaLo      float64 // Θ_j − theta, to 106 bits in all
+	thetaLo      float64          // Θ_j − theta, to 106 bits in all
 	c, d         [nTaylor]float64 // phase series (see above)
 	ai, bi       [nTaylor]float64 // Taylor series of Ai and Bi
 }
