@@ -1,0 +1,125 @@
+package exact
+
+import (
+	"bufio"
+	"fmt"
+	"math"
+	"math/big"
+	"math/rand/v2"
+	"os"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/tiltwell/tiltwell/exact/internal/bigairy"
+)
+
+type refRow struct {
+	f   float64
+	n   int
+	eta *big.Float
+}
+
+// readReference reads testdata/levels256.txt, written by
+// internal/cmd/levelref from the independent 256-bit solver.
+func readReference(t *testing.T) []refRow {
+	t.Helper()
+	fh, err := os.Open("testdata/levels256.txt")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer fh.Close()
+	var rows []refRow
+	sc := bufio.NewScanner(fh)
+	for sc.Scan() {
+		line := sc.Text()
+		if strings.HasPrefix(line, "#") || line == "" {
+			continue
+		}
+		fs := strings.Fields(line)
+		if len(fs) != 3 {
+			t.Fatalf("bad line %q", line)
+		}
+		f, err1 := strconv.ParseFloat(fs[0], 64)
+		n, err2 := strconv.Atoi(fs[1])
+		eta, _, err3 := big.ParseFloat(fs[2], 10, 256, big.ToNearestEven)
+		if err1 != nil || err2 != nil || err3 != nil {
+			t.Fatalf("bad line %q", line)
+		}
+		rows = append(rows, refRow{f, n, eta})
+	}
+	if err := sc.Err(); err != nil {
+		t.Fatal(err)
+	}
+	if len(rows) < 1000 {
+		t.Fatalf("only %d reference rows", len(rows))
+	}
+	return rows
+}
+
+// TestAgainstReference holds every level and its error estimate against the
+// 256-bit reference (fields 1e-8 to 1e4, n = 1..50): the error is at most
+// 1e-14·max(1, |η|), the estimate Err never undershoots it, and Err is at
+// most 100 times max(error, ε·max(1, |η|)).
+func TestAgainstReference(t *testing.T) {
+	t.Parallel()
+	rows := readReference(t)
+	var worst, worstRatio, worstPess float64
+	var worstAt, ratioAt, pessAt string
+	for _, r := range rows {
+		l, err := Solver{}.Level(r.f, r.n)
+		if err != nil {
+			t.Fatalf("f=%g n=%d: %v", r.f, r.n, err)
+		}
+		ref, _ := r.eta.Float64()
+		// The error against the 256-bit value, formed in big arithmetic
+		// so that the reference's own rounding to float64 does not count.
+		d := new(big.Float).SetPrec(256).Sub(new(big.Float).SetFloat64(l.Energy), r.eta)
+		e, _ := d.Float64()
+		e = math.Abs(e)
+		scale := max(1, math.Abs(ref))
+		at := fmt.Sprintf("f=%g n=%d", r.f, r.n)
+		if e/scale > worst {
+			worst, worstAt = e/scale, at
+		}
+		if e/scale > 1e-14 {
+			t.Errorf("%s: η = %.17g, reference %s (rel err %.2g)", at, l.Energy, r.eta.Text('g', 20), e/scale)
+		}
+		if e > l.Err {
+			t.Errorf("%s: Err = %.3g undershoots the true error %.3g", at, l.Err, e)
+		}
+		if q := e / l.Err; q > worstRatio {
+			worstRatio, ratioAt = q, at
+		}
+		p := l.Err / max(e, eps*scale)
+		if p > worstPess {
+			worstPess, pessAt = p, at
+		}
+		if p > 100 {
+			t.Errorf("%s: Err = %.3g is %.0f× the error %.3g", at, l.Err, p, e)
+		}
+	}
+	t.Logf("%d levels: worst relative error %.3g (%s); worst error/Err %.3g (%s); worst Err/max(error, ε) %.1f (%s)",
+		len(rows), worst, worstAt, worstRatio, ratioAt, worstPess, pessAt)
+}
+
+// TestReferenceFile re-derives a seeded sample of the reference file with
+// the 256-bit solver, so the file cannot drift from its generator.
+func TestReferenceFile(t *testing.T) {
+	t.Parallel()
+	rows := readReference(t)
+	rng := rand.New(rand.NewPCG(1, 1))
+	for range 4 {
+		r := rows[rng.IntN(len(rows))]
+		if r.n > 10 {
+			r = rows[rng.IntN(len(rows))] // prefer the cheaper low levels
+		}
+		v, err := bigairy.Level(r.f, r.n, 256)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got, want := v.Text('e', 30), r.eta.Text('e', 30); got != want {
+			t.Errorf("f=%g n=%d: regenerated %s, file %s", r.f, r.n, got, want)
+		}
+	}
+}
