@@ -74,7 +74,7 @@ func crude(f float64, j int) float64 {
 
 // rigorousSlack is how much wider than the estimated bracket a proven
 // bracket may be and still be reported (as Rigorous) instead of it.
-const rigorousSlack = 4
+const rigorousSlack = 3
 
 // solveN diagonalises at basis size N and brackets levels 1..k into
 // w.theta and w.err (and level k+1 when N > k, used for the gap).
@@ -129,10 +129,7 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 			step = 1
 		}
 		for n := n0; n <= N; n += step {
-			if n == m {
-				continue
-			}
-			wmn := elem(m, n)
+			wmn := elem(m, n) // for n = m, V_mm (the kinetic m² is added later)
 			if wmn == 0 {
 				continue
 			}
@@ -267,8 +264,8 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 		default:
 			next = lv.theta + 3
 		}
-		loR := crude(f, j+1) + vmin
-		loR = temple(loR, lv.rhoLoP, lv.rhoHiP, lv.sig2P, betaR)
+		crudeLo := crude(f, j+1) + vmin
+		loR := temple(crudeLo, lv.rhoLoP, lv.rhoHiP, lv.sig2P, betaR)
 		if lv.improved {
 			loR = temple(loR, lv.rhoLoU, lv.rhoHiU, lv.sig2U, betaR)
 		}
@@ -288,6 +285,13 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 		loE := estimate(loR, lv.rhoLoP, lv.rhoHiP, lv.sig2P)
 		if lv.improved {
 			loE = estimate(loE, lv.rhoLoU, lv.rhoHiU, lv.sig2U)
+		}
+		if lv.improved {
+			// Where the Kato–Temple bracket is loose (the top of the basis
+			// at strong fields, where σ² is not small against the gap) or
+			// its hypothesis cannot be met, twice the second-order
+			// correction θ − ρ(u) is the better estimate.
+			loE = max(loE, lv.theta-2*(lv.theta-lv.rhoLoU))
 		}
 		eR := max(lv.theta-loR, 0)*(1+4*unit) + 4*unit*math.Abs(lv.theta)
 		eE := max(lv.theta-loE, 0)*(1+4*unit) + 4*unit*math.Abs(lv.theta)

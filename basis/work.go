@@ -74,9 +74,9 @@ func (w *work) eigen(N int) bool {
 	var impl gonum.Implementation
 	lwork := max(1, 3*N-1)
 	if N <= blockedMax {
-		var q [1]float64
-		impl.Dsyev(lapack.EVCompute, blas.Upper, N, w.a, N, w.eig, q[:], -1)
-		lwork = max(lwork, int(q[0]))
+		w.lw = grow(w.lw, max(1, len(w.lw)))
+		impl.Dsyev(lapack.EVCompute, blas.Upper, N, w.a, N, w.eig, w.lw[:1], -1)
+		lwork = max(lwork, int(w.lw[0]))
 	}
 	w.lw = grow(w.lw, lwork)
 	return impl.Dsyev(lapack.EVCompute, blas.Upper, N, w.a, N, w.eig, w.lw, lwork)
