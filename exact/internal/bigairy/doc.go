@@ -11,6 +11,15 @@
 // Maclaurin series with the working precision raised to cover cancellation,
 // and the continuous Airy phase Θ(z) = atan2(Ai(z), Bi(z)) of DLMF §9.8.
 //
+// The levels of H = −(1/π²) d²/dξ² + f(ξ − ½) on [0, 1] with Dirichlet walls
+// come by two independent routes: [LevelAiry] finds the root of the Airy
+// determinant, bracketed by the phase count ⌊(Θ(z₀) − Θ(z₁))/π⌋, where the
+// Airy arguments are moderate; [LevelShoot] integrates the equation in ξ by
+// Taylor series and counts nodes with a Prüfer angle, which works at every
+// field, including tiny f where the Airy arguments are of size 1e5 and
+// more. [Level] picks the cheaper of the two. The tests hold them against
+// each other to the working precision.
+//
 // Arguments are never modified; results are new values rounded to the
 // requested precision. All functions are safe for concurrent use (the
 // constants π, Γ(1/3) and the Airy initial values are cached behind a mutex).
