@@ -89,40 +89,48 @@ func secondOrder(n int) float64 {
 	return (nn*math.Pi*math.Pi - 15) / (48 * nn * nn * math.Pi * math.Pi)
 }
 
-// estimate returns the error estimate of the order-p energy of e at field
-// f ≥ 0, before rounding:
-//
-//	|Σ_(2p<j≤J) c_j f^j| + max(|c_(J−2)| f^(J−2), |c_J| f^J).
-func (e *entry) estimate(p int, f float64) float64 {
+// powers returns f², f⁴, …, f^J.
+func powers(f float64) (pw [nCoef]float64) {
 	f2 := f * f
-	pw := f2 // f^(2i+2)
-	var s, last, prev float64
-	for i, c := range e.c {
-		t := c * pw
-		if i >= p-1 {
-			s += t
-		}
-		prev, last = last, t
-		pw *= f2
+	x := f2
+	for i := range pw {
+		pw[i] = x
+		x *= f2
 	}
-	return math.Abs(s) + math.Max(math.Abs(prev), math.Abs(last))
+	return pw
 }
 
-// dipoleEstimate returns the error estimate of the dipole 2c₂f at f ≥ 0,
+// estimate returns the error estimate of the order-p energy of e at the
+// field whose powers f², f⁴, …, f^J are pw, before rounding:
+//
+//	|Σ_(2p<j≤J) c_j f^j| + max(|c_(J−2)| f^(J−2), |c_J| f^J).
+func (e *entry) estimate(p int, pw *[nCoef]float64) float64 {
+	var s float64
+	for i := p - 1; i < nCoef; i++ {
+		s += e.c[i] * pw[i]
+	}
+	return abs(s) + max(abs(e.c[nCoef-2]*pw[nCoef-2]), abs(e.c[nCoef-1]*pw[nCoef-1]))
+}
+
+// dipoleEstimate returns the error estimate of the dipole 2c₂f at f > 0,
 // before rounding: the same construction for dη/df = Σ j c_j f^(j−1),
 //
 //	|Σ_(4≤j≤J) j c_j f^(j−1)| + max((J−2)|c_(J−2)| f^(J−3), J|c_J| f^(J−1)).
 func (e *entry) dipoleEstimate(f float64) float64 {
-	f2 := f * f
-	pw := f // f^(2i+1)
-	var s, last, prev float64
-	for i, c := range e.c {
-		t := float64(2*i+2) * c * pw
-		if i >= 1 {
-			s += t
-		}
-		prev, last = last, t
-		pw *= f2
+	pw := powers(f)
+	var s float64
+	for i := 1; i < nCoef; i++ {
+		s += float64(2*i+2) * e.c[i] * pw[i]
 	}
-	return math.Abs(s) + math.Max(math.Abs(prev), math.Abs(last))
+	last := float64(maxOrder) * e.c[nCoef-1] * pw[nCoef-1]
+	prev := float64(maxOrder-2) * e.c[nCoef-2] * pw[nCoef-2]
+	return (abs(s) + max(abs(prev), abs(last))) / f
+}
+
+// abs is math.Abs for the finite values here, kept inlinable.
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
 }
