@@ -1,0 +1,208 @@
+// Choicetable prints, as Markdown, the README's method-choice tables: for
+// each method and each range of reduced fields, the worst true error of
+// the lowest levels against the exact reference and the method's own
+// estimate, the time per level measured on this machine, and the method
+// tiltwell.Choose picks for a few tolerances.
+//
+// The fields are reduced (f in F₀, energies in E₁), so the tables hold for
+// any well; no physical data is involved. Timings, and so the choices
+// between methods that all meet a tolerance, depend on the machine.
+//
+// Usage:
+//
+//	go run ./examples/choicetable > table.md
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"strings"
+	"time"
+
+	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/basis"
+	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/perturb"
+)
+
+// candidates are the methods in the tables, cheapest first.
+func candidates() []tiltwell.Candidate {
+	return []tiltwell.Candidate{
+		{Name: "perturb1", Solver: perturb.Solver{Order: 1}},
+		{Name: "perturb2", Solver: perturb.Solver{Order: 2}},
+		{Name: "basis", Solver: basis.Solver{}},
+		{Name: "exact", Solver: exact.Solver{}},
+	}
+}
+
+// ranges are the largest |f| of each column.
+var ranges = []float64{1, 10, 100, 1000}
+
+// tolerances are the rows of the choice table, absolute in E₁.
+var tolerances = []float64{1e-2, 1e-4, 1e-8, 1e-12}
+
+// fieldsUpTo samples [0, fmax]: zero, then fmax times 1e-3 … 1 (1-2-5
+// steps, then tenths), so that both the weak-field end and the strong end
+// are covered.
+func fieldsUpTo(fmax float64) []float64 {
+	fs := []float64{0}
+	for _, x := range []float64{1e-3, 2e-3, 5e-3, 1e-2, 2e-2, 5e-2} {
+		fs = append(fs, x*fmax)
+	}
+	for i := 1; i <= 10; i++ {
+		fs = append(fs, float64(i)/10*fmax)
+	}
+	return fs
+}
+
+func main() {
+	k := flag.Int("n", 3, "number of levels")
+	flag.Parse()
+	if *k < 1 || *k > 20 {
+		fmt.Fprintf(os.Stderr, "choicetable: -n %d: want 1 to 20 levels\n", *k)
+		os.Exit(2)
+	}
+	if err := run(os.Stdout, *k); err != nil {
+		fmt.Fprintln(os.Stderr, "choicetable:", err)
+		os.Exit(2)
+	}
+}
+
+// cell is one method over one range.
+type cell struct {
+	trueErr, est float64
+	outside      bool // the method refused or flagged a field of the range
+	cost         time.Duration
+}
+
+func run(w io.Writer, k int) error {
+	cands := candidates()
+	cells := make([][]cell, len(cands))
+	choices := make([][]string, len(tolerances))
+	for ri, fmax := range ranges {
+		fields := fieldsUpTo(fmax)
+		for ci, c := range cands {
+			cl, err := measure(c.Solver, fields, k)
+			if err != nil {
+				return fmt.Errorf("%s: %w", c.Name, err)
+			}
+			cells[ci] = append(cells[ci], cl)
+		}
+		for ti, tol := range tolerances {
+			ch, err := tiltwell.Choose(cands, tol, fields, k)
+			name := ch.Name
+			if errors.Is(err, tiltwell.ErrNoneMeets) {
+				name = "none"
+			} else if err != nil {
+				return err
+			}
+			choices[ti] = append(choices[ti], name)
+			if ti == 0 {
+				for ci, tr := range ch.Trials {
+					cells[ci][ri].cost = tr.Stats.PerLevel
+				}
+			}
+		}
+	}
+
+	header := "| method |"
+	rule := "|---|"
+	for _, fmax := range ranges {
+		header += fmt.Sprintf(" \\|f\\| ≤ %g |", fmax)
+		rule += "---|"
+	}
+	fmt.Fprintf(w, "Worst error of the %d lowest levels over each range of reduced fields, in E₁: true error against `exact.Solver` (the method's own estimate). \"outside\" marks a method that refuses or flags part of the range.\n\n", k)
+	fmt.Fprintln(w, header)
+	fmt.Fprintln(w, rule)
+	for ci, c := range cands {
+		var b strings.Builder
+		fmt.Fprintf(&b, "| %s |", c.Name)
+		for _, cl := range cells[ci] {
+			switch {
+			case cl.outside:
+				b.WriteString(" outside |")
+			case c.Name == "exact":
+				fmt.Fprintf(&b, " reference (%s) |", sci(cl.est))
+			default:
+				fmt.Fprintf(&b, " %s (%s) |", sci(cl.trueErr), sci(cl.est))
+			}
+		}
+		fmt.Fprintln(w, b.String())
+	}
+
+	fmt.Fprintf(w, "\nTime per level, measured by `tiltwell.Choose` on the machine that ran `go run ./examples/choicetable`.\n\n")
+	fmt.Fprintln(w, header)
+	fmt.Fprintln(w, rule)
+	for ci, c := range cands {
+		var b strings.Builder
+		fmt.Fprintf(&b, "| %s |", c.Name)
+		for _, cl := range cells[ci] {
+			if cl.outside {
+				b.WriteString(" — |")
+			} else {
+				fmt.Fprintf(&b, " %s |", ns(cl.cost))
+			}
+		}
+		fmt.Fprintln(w, b.String())
+	}
+
+	fmt.Fprintf(w, "\nThe method `tiltwell.Choose` picks: the cheapest whose own estimates meet the tolerance (absolute, in E₁) on every level and field of the range.\n\n")
+	fmt.Fprintln(w, strings.Replace(header, "method", "tolerance", 1))
+	fmt.Fprintln(w, rule)
+	for ti, tol := range tolerances {
+		fmt.Fprintf(w, "| %g | %s |\n", tol, strings.Join(choices[ti], " | "))
+	}
+	return nil
+}
+
+// measure runs s over the fields against the exact reference.
+func measure(s tiltwell.Solver, fields []float64, k int) (cell, error) {
+	var cl cell
+	for _, f := range fields {
+		ref, err := exact.Solver{}.Levels(nil, f, k)
+		if err != nil {
+			return cl, err
+		}
+		ls, err := s.Levels(nil, f, k)
+		if err != nil {
+			cl.outside = true
+			continue
+		}
+		for n, l := range ls {
+			cl.trueErr = math.Max(cl.trueErr, math.Abs(l.Energy-ref[n].Energy))
+			cl.est = math.Max(cl.est, l.Err)
+		}
+	}
+	return cl, nil
+}
+
+// sci formats an error compactly: "0" or "2.2e-02".
+func sci(x float64) string {
+	if x == 0 {
+		return "0"
+	}
+	return fmt.Sprintf("%.1e", x)
+}
+
+// ns formats a duration with two significant digits and a unit.
+func ns(d time.Duration) string {
+	x := float64(d.Nanoseconds())
+	unit := "ns"
+	for _, u := range []string{"µs", "ms", "s"} {
+		if x < 1000 {
+			break
+		}
+		x, unit = x/1000, u
+	}
+	if x >= 100 {
+		return fmt.Sprintf("%.0f %s", math.Round(x/10)*10, unit)
+	}
+	if x >= 10 {
+		return fmt.Sprintf("%.0f %s", x, unit)
+	}
+	return fmt.Sprintf("%.1f %s", x, unit)
+}
