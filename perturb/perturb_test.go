@@ -422,8 +422,8 @@ func TestLimit(t *testing.T) {
 			}
 		}
 	}
-	// Second-order limits of the first levels, as the documentation
-	// states them (about 6, 6, 12, 170: the validity rule, derived).
+	// Second-order limits of the first levels, as the documentation of
+	// Limit states them (6.4, 6.4, 10.5, 282), so that the doc stays true.
 	s := perturb.Solver{}
 	for _, c := range []struct {
 		n      int
