@@ -24,9 +24,9 @@ type Wave struct {
 	n     int
 }
 
-// At returns φ(ξ); 0 outside [0, 1].
+// At returns φ(ξ); 0 at the walls and outside [0, 1].
 func (w *Wave) At(xi float64) float64 {
-	if !(xi >= 0 && xi <= 1) {
+	if !(xi > 0 && xi < 1) {
 		return 0
 	}
 	if w.zero {
