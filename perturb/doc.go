@@ -62,8 +62,8 @@
 // trusted: the last computed orders grow past 5% of the first neglected
 // one, or the first neglected order past 10% of the distance to the
 // nearest other level. It grows like n² (about 6 for n = 1 and 2 at
-// second order, 280 for n = 12; the radius of convergence is about 10.5
-// for n = 1 and 2). Beyond it the solver still answers, with an error
+// second order, 280 for n = 12; the radius of convergence, judged from the
+// ratios of the coefficients, is about 10.5 for n = 1 and 2). Beyond it the solver still answers, with an error
 // wrapping [tiltwell.ErrOutOfRange]; the estimate there is usually
 // pessimistic, but not always (it was seen to undershoot at three times
 // the first-order limit), and levels may come out of order in energy.
