@@ -1,0 +1,357 @@
+package variational
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+
+	"github.com/tiltwell/tiltwell"
+)
+
+// Family selects a trial-function family.
+//
+// Programs should not rely on the underlying numeric value of a Family
+// being constant.
+type Family int
+
+const (
+	// Poly is the Rayleigh–Ritz space
+	//
+	//	span{ξ(1 − ξ) (2ξ − 1)^j e^(−β(ξ − ½)), j = 0..d−1}
+	//
+	// with β optimized for each level and d = min(2n + Extra, 40) for
+	// level n. It is this package's own design (no published source):
+	// polynomials converge geometrically to the analytic eigenfunctions,
+	// where sines converge only algebraically, and the envelope localizes
+	// the space at the low wall in a strong field. It is the default and
+	// the most accurate family at every field.
+	Poly Family = iota
+	// Sine is the Rayleigh–Ritz space of the tilted ground state and its
+	// sine harmonics,
+	//
+	//	span{sin(kπξ) e^(−β(ξ − ½)), k = 1..d},
+	//
+	// with β optimized for each level and d as for Poly. For d = 1 it is
+	// the Tilt family. Its accuracy is limited by the algebraic
+	// convergence of sine series.
+	Sine
+	// Tilt is the one-parameter exponential tilt of the ground state,
+	//
+	//	φ_β(ξ) ∝ sin(πξ) e^(−β(ξ − ½)),
+	//
+	// of Bastard, Mendez, Chang and Esaki (Phys. Rev. B 28, 3241 (1983)),
+	// with ⟨H⟩ and ⟨H²⟩ in closed form. It gives the ground level only.
+	Tilt
+)
+
+// String returns "poly", "sine" or "tilt".
+func (fam Family) String() string {
+	switch fam {
+	case Poly:
+		return "poly"
+	case Sine:
+		return "sine"
+	case Tilt:
+		return "tilt"
+	}
+	return "Family(" + strconv.Itoa(int(fam)) + ")"
+}
+
+// MaxLevels is the number of levels the Poly and Sine families give.
+const MaxLevels = 12
+
+// MaxField is the largest |f| the Poly and Tilt families accept.
+const MaxField = 1e4
+
+// SineMaxField is the largest |f| the Sine family accepts: beyond it its
+// tilt search runs to the largest tilt the quadrature rules resolve, and
+// its brackets are wider than 1e-3 anyway.
+const SineMaxField = 1e3
+
+// defaultExtra is the default of Solver.Extra.
+const defaultExtra = 16
+
+// Solver computes variational brackets [lower, upper] on the levels of the
+// tilted well: the upper bound is a Rayleigh–Ritz value (Hylleraas–Undheim–
+// MacDonald), the lower bound Temple's, and the reported Energy is the upper
+// bound with Err the width of the bracket, so that
+//
+//	Energy − Err ≤ η_n ≤ Energy.
+//
+// The zero value uses the Poly family with its default size. A Solver holds
+// configuration only and is safe for concurrent use.
+type Solver struct {
+	// Family is the trial-function family; the zero value is Poly.
+	Family Family
+	// Extra sets the Ritz dimension of the Poly and Sine families: level
+	// n uses min(2n + Extra, 40) functions. If Extra is 0 it is defaulted
+	// to 16; it must not be negative. Tilt ignores it.
+	Extra int
+}
+
+var (
+	_ tiltwell.WaveSolver = Solver{}
+	_ tiltwell.Solver     = (*Solver)(nil)
+)
+
+// Bracket is a certified (or, where Bound says so, estimated) enclosure of
+// one level, in units of E₁.
+type Bracket struct {
+	// N is the level number, 1 for the ground level.
+	N int
+	// Lower and Upper enclose the level: Lower ≤ η_N ≤ Upper. Upper is a
+	// Rayleigh–Ritz value and is always a proven upper bound (up to
+	// floating-point rounding); Lower is proven when Bound is
+	// [tiltwell.Rigorous].
+	Lower, Upper float64
+	// Bound is Rigorous when Lower is Temple's bound (or the floor
+	// max(n² − |f|/2, −|f|/2 + |a_n|(|f|/π)^(2/3))) and Estimate when it is
+	// Weinstein's E − σ, used when Temple's condition fails.
+	Bound tiltwell.Bound
+	// Tilt is the optimal β of the trial space for this level, with the
+	// sign of the field (β(−f) = −β(f)). Pass the Brackets of a nearby
+	// field to [Solver.Brackets] to start the searches from these values.
+	Tilt float64
+}
+
+// Level returns the bracket as a [tiltwell.Level]: Energy = Upper,
+// Err = Upper − Lower.
+func (b Bracket) Level() tiltwell.Level {
+	return tiltwell.Level{N: b.N, Energy: b.Upper, Err: b.Upper - b.Lower, Bound: b.Bound}
+}
+
+// Contains reports whether Lower ≤ eta ≤ Upper.
+func (b Bracket) Contains(eta float64) bool { return b.Lower <= eta && eta <= b.Upper }
+
+// maxLevels returns the number of levels the family gives.
+func (s Solver) maxLevels() int {
+	if s.Family == Tilt {
+		return 1
+	}
+	return MaxLevels
+}
+
+func (s Solver) check(f float64, k int) error {
+	switch s.Family {
+	case Poly, Sine, Tilt:
+	default:
+		return fmt.Errorf("variational: unknown family %v: %w", s.Family, tiltwell.ErrUnits)
+	}
+	if s.Extra < 0 {
+		return fmt.Errorf("variational: Extra = %d is negative: %w", s.Extra, tiltwell.ErrUnits)
+	}
+	maxField := MaxField
+	if s.Family == Sine {
+		maxField = SineMaxField
+	}
+	return tiltwell.CheckArgs("variational", f, k, s.maxLevels(), maxField)
+}
+
+func (s Solver) dim(n int) int {
+	e := s.Extra
+	if e == 0 {
+		e = defaultExtra
+	}
+	return min(2*n+e, maxDim)
+}
+
+// Levels implements [tiltwell.Solver]. Energy is the upper bound of each
+// level's bracket and Err its width (see [Solver.Brackets]). If dst has
+// capacity for k levels, Levels does not allocate.
+//
+// Special cases are:
+//
+//	f = 0:  the Poly and Sine spaces contain the exact sines only
+//	        approximately (Poly) or exactly (Sine), brackets of width
+//	        ~1e-13 around n²
+//	f < 0:  the same brackets as for |f| (mirror symmetry)
+func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	dst = dst[:0]
+	if err := s.check(f, k); err != nil {
+		return dst, err
+	}
+	sp := spacePool.Get().(*space)
+	defer spacePool.Put(sp)
+	br, err := s.brackets(sp, sp.brackets[:0], f, k, nil)
+	if err != nil {
+		return dst, err
+	}
+	for _, b := range br {
+		dst = append(dst, b.Level())
+	}
+	return dst, nil
+}
+
+// Brackets appends the brackets of the lowest k levels at reduced field f
+// to dst[:0] and returns the result. If dst is nil, a new slice is
+// allocated and returned; if it has capacity for k brackets, Brackets does
+// not allocate.
+//
+// If warm is not nil, warm[i].Tilt (for i < len(warm)) is the starting
+// point of the tilt search for level i+1, as returned by a call at a nearby
+// field; this is the warm start for a field sweep (see [Solver.Sweep]). The
+// result does not depend on warm except through which local optimum of the
+// tilt the searches find; every bracket is valid whatever the tilt. warm may
+// be dst itself.
+//
+// For level n the method minimizes the n-th Ritz value of the family's
+// space over β (Brent's method, tilt converged to 1e-7 relative, the energy
+// to ~1e-14), which bounds η_n from above by the Hylleraas–Undheim–
+// MacDonald theorem, and takes the Ritz function φ_n with E = ⟨H⟩ and
+// σ² = ⟨H²⟩ − E², both computed by Gauss–Legendre quadrature with a
+// rigorous bound on the quadrature error (closed forms for Tilt). With α a
+// proven lower bound on η_{n+1}, Temple's inequality gives
+//
+//	η_n ≥ E − σ²/(α − E)   when E < α
+//
+// (G. Temple, Proc. R. Soc. Lond. A 119, 276 (1928);
+// ../shared/reference/check-values.md §8). See the package documentation
+// for the proof for excited levels and for the choice of α. When E ≥ α the
+// lower bound is Weinstein's E − σ (D. H. Weinstein, Proc. Natl. Acad. Sci.
+// USA 20, 529 (1934)), which is marked Estimate: it brackets some level, and
+// the method cannot prove that it is η_n.
+func (s Solver) Brackets(dst []Bracket, f float64, k int, warm []Bracket) ([]Bracket, error) {
+	dst = dst[:0]
+	if err := s.check(f, k); err != nil {
+		return dst, err
+	}
+	sp := spacePool.Get().(*space)
+	defer spacePool.Put(sp)
+	return s.brackets(sp, dst, f, k, warm)
+}
+
+// Sweep appends the brackets of the lowest k levels at each field of fs to
+// dst[:0], field after field (those of fs[i] at [i*k, (i+1)*k)), and
+// returns the result. Each field's tilt searches start from the previous
+// field's optimum, which saves about half of the work when consecutive
+// fields are close. If dst is nil, a new slice is allocated and returned.
+func (s Solver) Sweep(dst []Bracket, fs []float64, k int) ([]Bracket, error) {
+	dst = dst[:0]
+	for _, f := range fs {
+		if err := s.check(f, k); err != nil {
+			return dst, err
+		}
+	}
+	sp := spacePool.Get().(*space)
+	defer spacePool.Put(sp)
+	var warm []Bracket
+	for i, f := range fs {
+		out, err := s.brackets(sp, dst[len(dst):], f, k, warm)
+		if err != nil {
+			return dst, err
+		}
+		dst = append(dst, out...)
+		warm = dst[i*k : (i+1)*k]
+	}
+	return dst, nil
+}
+
+// brackets computes the brackets; the arguments have been checked.
+func (s Solver) brackets(sp *space, dst []Bracket, f float64, k int, warm []Bracket) ([]Bracket, error) {
+	af, neg := tiltwell.Fold(f)
+	sign := 1.0
+	if neg {
+		sign = -1
+	}
+	dst = dst[:0]
+	if s.Family == Tilt {
+		guess := tiltGuess(af)
+		if len(warm) > 0 {
+			guess = sign * warm[0].Tilt
+		}
+		b := tiltBracket(af, guess)
+		b.Tilt *= sign
+		return append(dst, b), nil
+	}
+	sh := polyShape
+	if s.Family == Sine {
+		sh = sineShape
+	}
+	// Upper bounds and Ritz data, level by level.
+	var res [MaxLevels]ritzResult
+	guess := 0.0
+	for n := 1; n <= k; n++ {
+		switch {
+		case n <= len(warm):
+			guess = sign * warm[n-1].Tilt
+		case n == 1:
+			guess = ritzGuess(sh, af)
+		}
+		dim := s.dim(n)
+		beta, evals := sp.searchTilt(sh, dim, n, af, guess)
+		res[n-1] = sp.verify(sh, dim, n, af, beta)
+		res[n-1].evals = evals
+		if !res[n-1].ok {
+			return dst, fmt.Errorf("variational: level %d at f = %g: trial space not positive definite at β = %g: %w",
+				n, f, beta, tiltwell.ErrNoConvergence)
+		}
+		guess = beta
+	}
+	// Lower bounds, from the top. For level n, alphaRig is a proven lower
+	// bound on η_{n+1}: the floor of level n+1 or, if larger, the proven
+	// lower bound of level n+1 itself. alphaEst is the best estimate of
+	// one: also the estimated lower bound of level n+1 and the Weinstein
+	// interval of the next Ritz value in level n's own space.
+	for n := 1; n <= k; n++ {
+		dst = append(dst, Bracket{})
+	}
+	alphaRig := levelFloor(k+1, af)
+	alphaEst := alphaRig
+	for n := k; n >= 1; n-- {
+		r := res[n-1]
+		floor := levelFloor(n, af)
+		b := Bracket{N: n, Upper: r.upper, Tilt: sign * r.beta}
+		b.Lower, b.Bound = lowerBound(r.eLo, r.eHi, r.s2, floor, alphaRig, math.Max(alphaEst, r.nextLo))
+		dst[n-1] = b
+		alphaRig, alphaEst = floor, math.Max(floor, b.Lower)
+		if b.Bound == tiltwell.Rigorous {
+			alphaRig = math.Max(floor, b.Lower)
+		}
+	}
+	return dst, nil
+}
+
+// ritzGuess is the starting tilt of the ground-level search: the trend of
+// the optimum in the tests' sweeps (Poly: about 0.3 f at weak and
+// 4.6 f^(1/3) at strong field; Sine: the Tilt family's optimum).
+func ritzGuess(sh shape, f float64) float64 {
+	if sh == polyShape {
+		return math.Min(0.3*f, 4.6*math.Cbrt(f))
+	}
+	return tiltGuess(f)
+}
+
+// tiltBracket minimizes the closed-form tilt energy and bounds the ground
+// level.
+func tiltBracket(f, guess float64) Bracket {
+	o := tiltSearch{f: f}
+	h := 0.25 + 0.2*math.Abs(guess)
+	a, b, c, _, fb, _ := bracketMin(o, guess, h, -maxTilt, maxTilt)
+	beta, _ := brent(o, a, b, c, fb, tiltRTol, tiltATol, 0, 200)
+	e, s2 := tiltVariance(beta, f)
+	ro := roundoff(e, f, 1)
+	br := Bracket{N: 1, Upper: e + ro, Tilt: beta}
+	alpha := levelFloor(2, f)
+	br.Lower, br.Bound = lowerBound(e-ro, e+ro, s2, levelFloor(1, f), alpha, alpha)
+	return br
+}
+
+// lowerBound chooses the lower bound of a level whose trial function has
+// Rayleigh quotient in [eLo, eHi] and variance at most s2, given the level's
+// floor, a proven lower bound alphaRig on the next level and an estimated
+// one alphaEst ≥ alphaRig:
+//   - Temple with alphaRig if its condition holds: Rigorous;
+//   - otherwise Temple with alphaEst (Kato's form, with an estimated end of
+//     the interval), or failing that Weinstein's eLo − σ: Estimate;
+//   - the floor instead whenever it is higher, which is proven.
+func lowerBound(eLo, eHi, s2, floor, alphaRig, alphaEst float64) (float64, tiltwell.Bound) {
+	lo, bound := floor, tiltwell.Rigorous
+	if t, ok := templeLower(eLo, eHi, s2, alphaRig); ok {
+		lo = math.Max(lo, t)
+	} else if t, ok := templeLower(eLo, eHi, s2, alphaEst); ok && t > floor {
+		lo, bound = t, tiltwell.Estimate
+	} else if w := eLo - math.Sqrt(s2); w > floor {
+		lo, bound = w, tiltwell.Estimate
+	}
+	return math.Min(lo, eHi), bound
+}
