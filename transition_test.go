@@ -89,6 +89,37 @@ func TestSweepRedShift(t *testing.T) {
 	}
 }
 
+// TestSweepElectronShift: with equal masses the hole's shift equals the
+// electron's (the same f, mirrored tilt, same spectrum), so the e1–h1 Shift
+// is twice the electron ground-level shift, which check-values.md §3 gives
+// for GaAs, m* = 0.067, L = 10 nm ("exact shift", six significant digits,
+// from the Airy determinant with mpmath).
+func TestSweepElectronShift(t *testing.T) {
+	t.Parallel()
+	want := []struct{ kv, shift float64 }{
+		{10, -0.0192946},
+		{50, -0.481642},
+		{100, -1.91768},
+		{200, -7.53596},
+	}
+	pair := tiltwell.Pair{Width: 10e-9, Electron: 0.067, Hole: 0.067}
+	fields := make([]float64, len(want))
+	for i, w := range want {
+		fields[i] = tiltwell.KVPerCM(w.kv)
+	}
+	lines, err := pair.Sweep(exact.Solver{}, nil, fields, []tiltwell.Transition{{1, 1}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, w := range want {
+		got := lines[i].Shift / 2
+		// Six significant digits: half a unit in the last.
+		if !scalar.EqualWithinRel(got, w.shift, 5e-6) {
+			t.Errorf("F = %v kV/cm: electron shift %.7g meV, check-values.md §3 %v", w.kv, got, w.shift)
+		}
+	}
+}
+
 // TestSweepZeroField: at F = 0 both wavefunctions are √2 sin(nπξ) (closed
 // form, see the package documentation), so the overlap is δ_EH by
 // orthonormality (with the sign convention φ′(0) > 0 for the hole, see
@@ -341,4 +372,40 @@ func TestTransitionString(t *testing.T) {
 	if got := (tiltwell.Transition{E: 1, H: 2}).String(); got != "e1-h2" {
 		t.Errorf("String() = %q, want e1-h2", got)
 	}
+}
+
+// FuzzSweep: any field and masses give lines or an error wrapping a root
+// sentinel, never a panic or a NaN.
+func FuzzSweep(f *testing.F) {
+	f.Add(1e7, 0.067, 0.3497, 1, 1)
+	f.Add(0.0, 1.0, 1.0, 2, 3)
+	f.Add(-3e8, 0.01, 5.0, 1, 2)
+	f.Add(math.NaN(), 0.067, 0.35, 1, 1)
+	f.Fuzz(func(t *testing.T, F, me, mh float64, e, h int) {
+		if e > 8 || h > 8 {
+			t.Skip("levels above 8: slow and not more telling")
+		}
+		pair := tiltwell.Pair{Width: 10e-9, Electron: me, Hole: mh}
+		lines, err := pair.Sweep(exact.Solver{}, nil, []float64{F}, []tiltwell.Transition{{e, h}})
+		if err != nil {
+			for _, s := range []error{tiltwell.ErrUnits, tiltwell.ErrField, tiltwell.ErrLevel, tiltwell.ErrOutOfRange, tiltwell.ErrNoConvergence} {
+				if errors.Is(err, s) {
+					return
+				}
+			}
+			t.Fatalf("error %v wraps no root sentinel", err)
+		}
+		if len(lines) != 1 {
+			t.Fatalf("%d lines, want 1", len(lines))
+		}
+		l := lines[0]
+		for _, v := range []float64{l.Shift, l.ShiftErr, l.Overlap, l.Overlap2, l.OverlapErr} {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				t.Fatalf("non-finite value in %+v", l)
+			}
+		}
+		if l.Overlap2 > 1+1e-9 {
+			t.Fatalf("overlap² %v above 1 (Cauchy–Schwarz)", l.Overlap2)
+		}
+	})
 }

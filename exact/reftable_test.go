@@ -273,3 +273,36 @@ func TestNewTableErrors(t *testing.T) {
 		t.Errorf("no fields: error %v, want a *TableError", err)
 	}
 }
+
+// FuzzReadTable: any input is read or refused with a *TableError, never a
+// panic, and a table that reads writes back to one that reads the same.
+func FuzzReadTable(f *testing.F) {
+	if b, err := os.ReadFile(goldenPath); err == nil {
+		f.Add(string(b))
+	}
+	f.Add("tiltwell-levels v1\n# note\n0 1 1 0\n0 2 4 0\n")
+	f.Add("tiltwell-levels v1\n1e-08\t1\t0.9999999999999994\t4e-15\n")
+	f.Add("tiltwell-levels v1\n-0 1 1 0\n0 1 1 0\n")
+	f.Fuzz(func(t *testing.T, file string) {
+		tab, err := exact.ReadTable(strings.NewReader(file))
+		if err != nil {
+			var te *exact.TableError
+			if !errors.As(err, &te) && !strings.Contains(err.Error(), "token too long") {
+				t.Fatalf("error %v is not a *TableError", err)
+			}
+			return
+		}
+		var buf bytes.Buffer
+		if _, err := tab.WriteTo(&buf); err != nil {
+			t.Fatalf("a table that was read does not write: %v", err)
+		}
+		again, err := exact.ReadTable(&buf)
+		if err != nil {
+			t.Fatalf("a written table does not read: %v\n%s", err, buf.String())
+		}
+		bits := cmp.Comparer(func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) })
+		if diff := cmp.Diff(tab, again, bits); diff != "" {
+			t.Fatalf("round trip changed the table (-want +got):\n%s", diff)
+		}
+	})
+}
