@@ -110,7 +110,13 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 		}
 		a[i*N+i] += float64((i + 1) * (i + 1))
 	}
-	if !w.eigen(N) {
+	var ok bool
+	if N >= selectedMin && kk <= N/2 {
+		ok = w.eigenSelected(N, kk)
+	} else {
+		ok = w.eigen(N)
+	}
+	if !ok {
 		return fmt.Errorf("basis: eigensolver did not converge at N = %d, f = %g: %w", N, f, tiltwell.ErrNoConvergence)
 	}
 
