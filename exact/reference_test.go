@@ -123,3 +123,37 @@ func TestReferenceFile(t *testing.T) {
 		}
 	}
 }
+
+// TestDipoleAgainstReference checks Dipole = dη/df (Hellmann–Feynman)
+// against a central difference of the 256-bit reference levels with a step
+// of 2^-40 relative, whose truncation error is below 1e-24 relative.
+func TestDipoleAgainstReference(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		f float64
+		n int
+	}{
+		{1e-3, 1}, {0.07, 1}, {0.5, 2}, {1, 1}, {3, 5}, {10, 1}, {10, 7}, {100, 3}, {1000, 6}, {7000, 20},
+	} {
+		fp, fm := c.f*(1+0x1p-40), c.f*(1-0x1p-40)
+		ep, err1 := bigairy.Level(fp, c.n, 256)
+		em, err2 := bigairy.Level(fm, c.n, 256)
+		if err1 != nil || err2 != nil {
+			t.Fatal(err1, err2)
+		}
+		num := new(big.Float).SetPrec(256).Sub(ep, em)
+		den := new(big.Float).SetPrec(256).Sub(big.NewFloat(fp), big.NewFloat(fm))
+		want, _ := num.Quo(num, den).Float64()
+		got, err := Solver{}.Dipole(c.f, c.n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		// Weak-to-moderate fields lose digits to the cancellation of the
+		// two halves of the well (|⟨ξ − ½⟩| ≪ ⟨|ξ − ½|⟩); see Dipole.
+		if e := math.Abs(got-want) / math.Abs(want); e > 1e-12 {
+			t.Errorf("f=%g n=%d: Dipole %.17g, reference dη/df %.17g (rel %.2g)", c.f, c.n, got, want, e)
+		} else {
+			t.Logf("f=%g n=%d: rel %.2g", c.f, c.n, e)
+		}
+	}
+}
