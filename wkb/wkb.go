@@ -1,0 +1,266 @@
+package wkb
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/tiltwell/tiltwell"
+)
+
+// MaxField is the largest |f| that Levels and Wavefunction accept. The
+// formulas hold at any field; the limit is the range over which the error
+// estimates are tested against the exact reference.
+const MaxField = 1e5
+
+// MaxLevels is the largest level count k (and level number n) accepted.
+// Wavefunction costs O(n) for its normalisation.
+const MaxLevels = 10000
+
+// Solver computes the levels of the tilted well by WKB quantisation with the
+// action integral in closed form. The zero value is ready to use and selects
+// the connection rule; Solver{Plain: true} selects the textbook rule. A
+// Solver holds configuration only and is safe for concurrent use.
+//
+// With e = η + f/2 (the kinetic energy at the low wall ξ = 0), the local
+// wavenumber is k(ξ) = π √(e − f ξ) and the classical turning point is
+// ξ_t = e/f. The plain rule is
+//
+//	∫₀¹ k dξ = nπ          if η ≥ f/2 (two hard walls),
+//	∫₀^ξ_t k dξ = (n − ¼)π  if η < f/2 (a hard wall and a turning point),
+//
+// (D. J. Griffiths, Introduction to Quantum Mechanics, 2nd ed., §8.3,
+// Eqs. 8.16 and 8.47, from memory), in closed form
+//
+//	(2/(3f)) [(η + f/2)^(3/2) − (η − f/2)^(3/2)] = n,
+//	η = −f/2 + [(3f/2)(n − ¼)]^(2/3).
+//
+// The connection rule (the default) is
+//
+//	S(η) + π/4 − u₁/ζ₀ − χ(x₁) = nπ,
+//
+// where S is ∫ k dξ over the allowed part of the well, ζ₀ = (2π/(3f)) e^(3/2)
+// is the action from the low wall to the turning point, u₁ = 5/72, and χ is
+// the connection phase at the high wall as a function of its Airy
+// coordinate x₁ = (f − e)/(f/π)^(2/3) (the wall's distance past the turning
+// point in Airy lengths (π² f)^(−1/3)); see the package documentation.
+//
+// Special cases are:
+//
+//	Levels(dst, 0, k) = n² for n = 1..k, with Err = 0 (both rules are exact
+//	    for a flat well)
+//	Levels(dst, −f, k) = Levels(dst, f, k)
+//	Levels(dst, f, k) for |f| < 1e-150 is treated as f = 0 (the shift is
+//	    below 1e-300)
+type Solver struct {
+	// Plain selects the textbook rule, with its jump at η = f/2 and its
+	// wrong-signed ground-level shift at low field. Its Err is the size of
+	// the connection correction (the distance to the connection rule's
+	// level) plus the connection rule's own Err.
+	Plain bool
+}
+
+var _ tiltwell.WaveSolver = Solver{}
+
+// u1 is u₁ of DLMF 9.7.2, the first coefficient of the phase-integral series
+// (the second-order WKB correction): θ(x) = π/4 + ζ − u₁/ζ + c₃/ζ³ − …
+const u1 = 5.0 / 72
+
+// c3 is the next coefficient of that series, the ζ^(−3) term of DLMF 9.8.22
+// written in ζ = (2/3)|x|^(3/2): (1105/6144) (2/3)⁴ = u₃ + u₁³/3 − u₁u₂.
+const c3 = 1105.0 / 6144 * 16 / 81
+
+// errSafety multiplies the first omitted term of the phase series in the
+// connection rule's Err. The remainder of the series was observed to be
+// smaller than, and of the sign of, that term (ratio 0.73 for the ground
+// level at strong field, where the far wall is nearest the turning point,
+// tending to 1 elsewhere); the factor keeps the estimate above the true
+// error after it is turned into an energy.
+const errSafety = 2
+
+// tinyField is the |f| below which the levels are n² to all digits.
+const tinyField = 1e-150
+
+const eps = 0x1p-52
+
+// Levels appends the lowest k levels at reduced field f to dst[:0] and
+// returns the result, N = 1..k in increasing order of energy, with Bound
+// [tiltwell.Estimate]. If dst is nil, a new slice is allocated and returned;
+// if dst has capacity for k levels, Levels does not allocate.
+//
+// Errors wrap [tiltwell.ErrField] for NaN or infinite f, [tiltwell.ErrLevel]
+// for k < 1 or k > [MaxLevels], and [tiltwell.ErrOutOfRange] for
+// |f| > [MaxField]; the returned slice is then empty.
+func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	dst = dst[:0]
+	if err := tiltwell.CheckArgs("wkb", f, k, MaxLevels, MaxField); err != nil {
+		return dst, err
+	}
+	af, _ := tiltwell.Fold(f)
+	ea := airyEnergy(af)
+	for n := 1; n <= k; n++ {
+		lv, err := s.level(af, ea, n)
+		if err != nil {
+			return dst[:0], err
+		}
+		dst = append(dst, lv)
+	}
+	return dst, nil
+}
+
+// airyEnergy returns (f/π)^(2/3), the Airy energy unit: the energy change
+// across one Airy length (π² f)^(−1/3).
+func airyEnergy(f float64) float64 { return math.Cbrt(f / math.Pi * f / math.Pi) }
+
+// level returns level n at field f ≥ 0; ea = airyEnergy(f).
+func (s Solver) level(f, ea float64, n int) (tiltwell.Level, error) {
+	if f < tinyField {
+		fn := float64(n)
+		return tiltwell.Level{N: n, Energy: fn * fn, Bound: tiltwell.Estimate}, nil
+	}
+	var ep float64
+	guess := 0.0
+	if s.Plain {
+		ep = plainE(f, n)
+		guess = ep
+	}
+	ei, dphi, err := connectE(f, ea, n, guess)
+	if err != nil {
+		return tiltwell.Level{}, err
+	}
+	eta := ei - f/2
+	e := connectErr(f, ea, n, ei, dphi)
+	if s.Plain {
+		eta = ep - f/2
+		e += math.Abs(ep - ei)
+	}
+	return tiltwell.Level{N: n, Energy: eta, Err: e, Bound: tiltwell.Estimate}, nil
+}
+
+// action returns S(e) = ∫ k dξ over the allowed part of the well and dS/de,
+// for f > 0, e > 0:
+//
+//	e ≤ f:  S = (2π/(3f)) e^(3/2)
+//	e > f:  S = (2π/(3f)) [e^(3/2) − (e − f)^(3/2)]
+//	          = (2π/3) (e + √(e(e−f)) + (e − f)) / (√e + √(e−f))
+//
+// The second line is the difference form, which does not cancel at small f.
+func action(f, e float64) (s, ds float64) {
+	if e <= f {
+		r := math.Sqrt(e)
+		return 2 * math.Pi / 3 * e * r / f, math.Pi / f * r
+	}
+	a, b := math.Sqrt(e), math.Sqrt(e-f)
+	return 2 * math.Pi / 3 * (e + a*b + (e - f)) / (a + b), math.Pi / (a + b)
+}
+
+// plainE returns e = η + f/2 of the plain rule, f > 0. The two-wall rule is
+// used when it has a root with η ≥ f/2, which is when n ≥ (2/3)√f.
+func plainE(f float64, n int) float64 {
+	fn := float64(n)
+	if 4*f > 9*fn*fn {
+		// One wall: (2π/(3f)) e^(3/2) = (n − ¼)π.
+		return math.Cbrt(1.5 * f * (fn - 0.25) * 1.5 * f * (fn - 0.25))
+	}
+	// Two walls: S is increasing and concave on e ≥ f, so Newton's steps
+	// land at or below the root after the first, then climb to it.
+	target := fn * math.Pi
+	e := max(fn*fn+f/2+f*f/(48*fn*fn), f)
+	for range 100 {
+		s, ds := action(f, e)
+		next := max(e+(target-s)/ds, f)
+		// S carries rounding of about ε S; a step below what that moves e
+		// by is noise.
+		if math.Abs(next-e) <= 2*eps*next+4*eps*(target+1)/ds {
+			return next
+		}
+		e = next
+	}
+	return e
+}
+
+// connect returns Φ(e) = S(e) + π/4 − u₁/ζ₀ − χ(x₁) and dΦ/de for f > 0.
+func connect(f, ea, e float64) (phi, dphi float64) {
+	r := math.Sqrt(e)
+	z0 := 2 * math.Pi / 3 * e * r / f // ζ₀, and S when e ≤ f
+	dz0 := math.Pi / f * r
+	s, ds := z0, dz0
+	if e > f {
+		b := math.Sqrt(e - f)
+		s, ds = 2*math.Pi/3*(e+r*b+(e-f))/(r+b), math.Pi/(r+b)
+	}
+	chi, dchi := airyChi((f - e) / ea)
+	return s + math.Pi/4 - u1/z0 - chi, ds + u1*dz0/(z0*z0) + dchi/ea
+}
+
+// connectE solves the connection rule for e = η + f/2 by Newton's method on
+// the closed-form phase, kept inside a bracket (Φ increases with e, from −∞
+// at e = 0). A positive guess is used as the starting point.
+func connectE(f, ea float64, n int, guess float64) (e, dphi float64, err error) {
+	fn := float64(n)
+	target := fn * math.Pi
+	e = guess
+	if !(e > 0) {
+		// One wall with the far-wall correction: ζ₀ − u₁/ζ₀ = (n − ¼)π.
+		t := (fn - 0.25) * math.Pi
+		z := (t + math.Sqrt(t*t+4*u1)) / 2
+		e = math.Cbrt(1.5 * f * z / math.Pi * 1.5 * f * z / math.Pi)
+		if e > f {
+			e = plainE(f, n)
+		}
+	}
+	lo, hi := 0.0, math.Inf(1)
+	for range 100 {
+		phi, d := connect(f, ea, e)
+		if phi < target {
+			lo = e
+		} else {
+			hi = e
+		}
+		step := (target - phi) / d
+		next := e + step
+		// Φ carries rounding of a few ε (|Φ| + 1); a step below what that
+		// moves e by is noise. A step below √ε of the scale on which Φ
+		// bends (e, or the Airy energy while the high wall is within
+		// reach of the table) leaves an error of order ε after it is
+		// taken, by the quadratic convergence of Newton's method, so it
+		// need not be checked by another round.
+		as := math.Abs(step)
+		scale := e
+		if f-e > airyLo*ea {
+			scale = min(e, ea)
+		}
+		if as <= 2*eps*e+4*eps*(target+1)/d || as <= 0x1p-27*scale {
+			return next, d, nil
+		}
+		if !(next > lo && next < hi) {
+			if math.IsInf(hi, 1) {
+				next = 2 * e
+			} else {
+				next = lo + (hi-lo)/2
+			}
+		}
+		e = next
+	}
+	return 0, 0, fmt.Errorf("wkb: f = %g, n = %d: connection rule did not converge: %w", f, n, tiltwell.ErrNoConvergence)
+}
+
+// connectErr is the connection rule's error estimate for e at level n: the
+// first omitted term of the far-wall phase series, c₃/ζ₀³, turned into an
+// energy by dΦ/de, times errSafety, plus rounding.
+func connectErr(f, ea float64, n int, e, dphi float64) float64 {
+	r := math.Sqrt(e)
+	z0 := 2 * math.Pi / 3 * e * r / f
+	trunc := errSafety * c3 / (z0 * z0 * z0)
+	// Rounding: S ≈ nπ is good to about ε S; the connection phase to
+	// about ε (2 + ζ̄₁) in the table, where it is θ − ζ̄₁ (tested against
+	// the asymptotic series at the table's edge), and 2ε beyond;
+	// η = e − f/2 rounds at ε (|η| + e)/2.
+	s := float64(n) * math.Pi
+	x1 := (f - e) / ea
+	chiErr := 2 * eps
+	if x1 >= airyLo && x1 <= airyHi {
+		chiErr = eps * (2 + 2.0/3*max(-x1, 0)*math.Sqrt(max(-x1, 0)))
+	}
+	eta := e - f/2
+	return (trunc+eps*(s+1)+chiErr)/dphi + eps*(math.Abs(eta)+e)/2
+}
