@@ -66,7 +66,7 @@ func main() {
 		fmt.Fprintf(os.Stderr, "choicetable: -n %d: want 1 to 20 levels\n", *k)
 		os.Exit(2)
 	}
-	if err := run(os.Stdout, *k); err != nil {
+	if err := run(os.Stdout, *k, ranges, tolerances); err != nil {
 		fmt.Fprintln(os.Stderr, "choicetable:", err)
 		os.Exit(2)
 	}
@@ -79,7 +79,9 @@ type cell struct {
 	cost         time.Duration
 }
 
-func run(w io.Writer, k int) error {
+// run writes the three tables for k levels over the given ranges of |f|
+// and tolerances.
+func run(w io.Writer, k int, ranges, tolerances []float64) error {
 	cands := candidates()
 	cells := make([][]cell, len(cands))
 	choices := make([][]string, len(tolerances))

@@ -66,13 +66,21 @@ func main() {
 	case *k < 1 || *k > 10:
 		fail(fmt.Errorf("-n %d: want 1 to 10 levels", *k))
 	}
-	levels, errs, err := curves(*fmax, *k)
-	if err != nil {
+	if err := render(*out, ext, *fmax, *k); err != nil {
 		fail(err)
+	}
+}
+
+// render draws both panels and writes them to the file out in format ext
+// ("png" or "svg").
+func render(out, ext string, fmax float64, k int) error {
+	levels, errs, err := curves(fmax, k)
+	if err != nil {
+		return err
 	}
 	c, err := draw.NewFormattedCanvas(24*vg.Centimeter, 10*vg.Centimeter, ext)
 	if err != nil {
-		fail(err)
+		return err
 	}
 	dc := draw.New(c)
 	plots := [][]*plot.Plot{{levels, errs}}
@@ -80,17 +88,15 @@ func main() {
 	cs := plot.Align(plots, tiles, dc)
 	levels.Draw(cs[0][0])
 	errs.Draw(cs[0][1])
-	f, err := os.Create(*out)
+	f, err := os.Create(out)
 	if err != nil {
-		fail(err)
+		return err
 	}
 	if _, err := c.WriteTo(f); err != nil {
 		f.Close()
-		fail(err)
+		return err
 	}
-	if err := f.Close(); err != nil {
-		fail(err)
-	}
+	return f.Close()
 }
 
 func fail(err error) {
