@@ -163,13 +163,7 @@ func solveScaled(sc wallScale, n int, floor, hint float64) (state, error) {
 	margin := 8 * eps * (f + nn + math.Abs(tri))
 	lo := max(nn-f/2, tri, floor) - margin
 	hi += margin
-	eta := hint
-	if alpha+airyZero(n) > 6 || !(hint > lo && hint < hi) {
-		// z₁ = α + a_n > 6 at the triangular level: the far wall moves the
-		// level by less than Θ(6) ≈ 1e-9 relative, so the triangular
-		// level is the better start.
-		eta = guess(f, n, tri, lo, hi)
-	}
+	eta := guess(f, alpha, n, tri, hint, lo, hi)
 	var prevEta, prevGp, step float64
 	haveprev := false
 	for it := 1; it <= 100; it++ {
@@ -211,9 +205,11 @@ func solveScaled(sc wallScale, n int, floor, hint float64) (state, error) {
 			eta = mid
 			continue
 		}
-		if math.Abs(step) <= 1e-9*max(1, math.Abs(next)) && curv > 0 {
+		if curv > 0 && 8*curv*step*step <= gerr/gp+eps*math.Abs(next) {
 			// Quadratic convergence: the error left after this step is
-			// about curv·step², far below the rounding floor.
+			// about curv·step² (curv = |G″/2G′| from the last two
+			// derivatives), below the rounding floor even with a safety
+			// factor of 8 on the curvature.
 			st.eta = next
 			st.err = 2*gerr/gp + 2*eps*math.Abs(next) + curv*step*step
 			return st, nil
@@ -223,17 +219,34 @@ func solveScaled(sc wallScale, n int, floor, hint float64) (state, error) {
 	return st, fmt.Errorf("exact: level %d at f = %g: %w", n, f, tiltwell.ErrNoConvergence)
 }
 
-// guess returns a starting value for level n inside (lo, hi).
-func guess(f float64, n int, tri, lo, hi float64) float64 {
+// guess returns a starting value for level n inside [lo, hi): the best of
+// three models by a rough estimate of each one's error in η.
+//
+//   - The triangular level, exact when the far wall is far: the wall at
+//     z₁ = α + a_n > 0 adds Θ(z₁) ≈ ½ exp(−(4/3) z₁^(3/2)) to the phase
+//     (DLMF 9.7.5, 9.7.7), worth about Θ(z₁) f/(α √|a_n|) in η.
+//   - Second-order perturbation theory n² + C_n f², whose next term is
+//     about (C_n f²)²/(2n) (the f⁴ term over the level spacing).
+//   - hint, the extrapolation from the levels below (NaN if none), trusted
+//     to about 1e-4 of the spacing 2n.
+func guess(f, alpha float64, n int, tri, hint, lo, hi float64) float64 {
 	nn := float64(n) * float64(n)
-	g := nn + secondOrder(n)*f*f
-	if tri < f/2 && (f > 4*nn) {
-		g = tri
+	best, bestErr := 0.5*(lo+hi), math.Inf(1)
+	if z1 := alpha + airyZero(n); z1 > 0 {
+		e := 0.5 * math.Exp(-4.0/3*z1*math.Sqrt(z1)) * f / (alpha * math.Sqrt(-airyZero(n)))
+		best, bestErr = tri, e
 	}
-	if !(g >= lo && g < hi) {
-		g = 0.5 * (lo + hi)
+	c := secondOrder(n) * f * f
+	if e := c * c / (2 * float64(n)); e < bestErr {
+		best, bestErr = nn+c, e
 	}
-	return g
+	if hint > lo && hint < hi && 2e-4*float64(n) < bestErr {
+		best = hint
+	}
+	if !(best >= lo && best < hi) {
+		best = 0.5 * (lo + hi)
+	}
+	return best
 }
 
 // Levels appends the lowest k levels at reduced field f to dst[:0] and
