@@ -409,3 +409,19 @@ func FuzzSweep(f *testing.F) {
 		}
 	})
 }
+
+// BenchmarkSweep: a 21-field sweep of e1–hh1 and e1–hh2 for the demo
+// pair, with exact.Solver.
+func BenchmarkSweep(b *testing.B) {
+	var fields []float64
+	for kv := 0.0; kv <= 200; kv += 10 {
+		fields = append(fields, tiltwell.KVPerCM(kv))
+	}
+	ts := []tiltwell.Transition{{1, 1}, {1, 2}}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := demoPair.Sweep(exact.Solver{}, nil, fields, ts); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
