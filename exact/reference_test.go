@@ -157,3 +157,34 @@ func TestDipoleAgainstReference(t *testing.T) {
 		}
 	}
 }
+
+// TestHighLevelsAgainstReference extends the reference check to the edges
+// of the supported range: levels up to 200 and |f| up to 1e5, computed by
+// the 256-bit solver at 128 bits (ample for float64).
+func TestHighLevelsAgainstReference(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		f float64
+		n int
+	}{
+		{1e5, 1}, {1e5, 37}, {-1e5, 120}, {3e4, 200}, {10, 200}, {1e-8, 200}, {500, 150},
+	} {
+		r, err := bigairy.Level(c.f, c.n, 128)
+		if err != nil {
+			t.Fatal(err)
+		}
+		l, err := Solver{}.Level(c.f, c.n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		d := new(big.Float).SetPrec(128).Sub(new(big.Float).SetFloat64(l.Energy), r)
+		e, _ := d.Float64()
+		e = math.Abs(e)
+		ref, _ := r.Float64()
+		if e > 1e-14*max(1, math.Abs(ref)) || e > l.Err {
+			t.Errorf("f=%g n=%d: η = %.17g, reference %s, error %.2g, Err %.2g", c.f, c.n, l.Energy, r.Text('g', 20), e, l.Err)
+		} else {
+			t.Logf("f=%g n=%d: error %.2g, Err %.2g", c.f, c.n, e, l.Err)
+		}
+	}
+}
