@@ -414,6 +414,7 @@ func TestBadInput(t *testing.T) {
 		{"Tol<0", Solver{Tol: -1}, 1, 1, tiltwell.ErrUnits},
 		{"Tol=Inf", Solver{Tol: math.Inf(1)}, 1, 1, tiltwell.ErrUnits},
 		{"V=NaN", Solver{Size: 5, Potential: nan}, 1, 1, tiltwell.ErrUnits},
+		{"V=huge", Solver{Size: 5, Potential: func(float64) float64 { return 2 * MaxPotential }}, 1, 1, tiltwell.ErrUnits},
 		{"Breaks=unsorted", Solver{Size: 5, Potential: flat, Breaks: []float64{0.5, 0.2}}, 1, 1, tiltwell.ErrUnits},
 		{"Breaks=outside", Solver{Size: 5, Potential: flat, Breaks: []float64{1}}, 1, 1, tiltwell.ErrUnits},
 	} {
@@ -652,14 +653,21 @@ func FuzzLevels(f *testing.F) {
 		f float64
 		k int
 		n int
-	}{{0, 1, 0}, {10, 3, 12}, {-50, 5, 7}, {1e-8, 2, 2}, {1000, 4, 0}, {math.NaN(), 1, 3}, {1e6, 2, 3}, {5, 0, 3}, {5, 9, 3}} {
-		f.Add(c.f, c.k, c.n)
+		v float64
+	}{{0, 1, 0, 0}, {10, 3, 12, 0}, {-50, 5, 7, 0}, {1e-8, 2, 2, 0}, {1000, 4, 0, 0}, {math.NaN(), 1, 3, 0},
+		{1e6, 2, 3, 0}, {5, 0, 3, 0}, {5, 9, 3, 0}, {3, 2, 10, 100}, {-20, 4, 16, -1e4}, {1, 1, 4, math.Inf(1)}, {1, 3, 30, 1e300}, {7, 3, 30, 1e12}} {
+		f.Add(c.f, c.k, c.n, c.v)
 	}
-	f.Fuzz(func(t *testing.T, fv float64, k, n int) {
+	f.Fuzz(func(t *testing.T, fv float64, k, n int, v float64) {
 		if n > 200 || n < -5 || k > 200 {
 			t.Skip("keep the fuzzer's basis small")
 		}
-		ls, err := Solver{Size: n}.Levels(nil, fv, k)
+		s := Solver{Size: n}
+		if v != 0 {
+			s.Potential = func(x float64) float64 { return v * x * x }
+			s.Breaks = []float64{0.5}
+		}
+		ls, err := s.Levels(nil, fv, k)
 		if err != nil {
 			for _, s := range []error{tiltwell.ErrField, tiltwell.ErrLevel, tiltwell.ErrOutOfRange, tiltwell.ErrUnits, tiltwell.ErrNoConvergence} {
 				if errors.Is(err, s) {
@@ -670,7 +678,7 @@ func FuzzLevels(f *testing.F) {
 		}
 		for _, l := range ls {
 			if math.IsNaN(l.Energy) || math.IsInf(l.Energy, 0) || math.IsNaN(l.Err) || l.Err < 0 {
-				t.Fatalf("f=%g k=%d N=%d: bad level %+v", fv, k, n, l)
+				t.Fatalf("f=%g k=%d N=%d v=%g: bad level %+v", fv, k, n, v, l)
 			}
 		}
 	})

@@ -12,8 +12,8 @@
 //	⟨m|ξ − ½|n⟩ = −8mn / (π² (m² − n²)²)   for m + n odd, 0 otherwise,
 //
 // (the dipole matrix elements of the infinite well; shared/reference
-// check-values §3). One symmetric eigen-decomposition (gonum's LAPACK
-// Dsyev) gives all N Ritz values at once; they are upper bounds on the
+// check-values §3). One symmetric eigen-decomposition (gonum's LAPACK)
+// gives all N Ritz values at once; they are upper bounds on the
 // exact levels (Hylleraas–Undheim–MacDonald) and decrease monotonically,
 // interlacing, as N grows. The lowest levels converge as N⁻⁷ (see
 // [Solver]).

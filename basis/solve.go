@@ -251,9 +251,11 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 	// gap partner β of level j. betaR chains proven bounds only; betaE
 	// also accepts the Ritz-gap guess β = ρ + (θ_(j+1) − θ_j)/2 where the
 	// proven β is too low for the Kato–Temple hypothesis β > ρ.
+	// ρ − σ²/(β − ρ) is concave in ρ, so over ρ ∈ [ρlo, ρhi] its
+	// minimum is at an end.
 	temple := func(lo, rhoLo, rhoHi, sig2, beta float64) float64 {
 		if beta > rhoHi {
-			lo = max(lo, rhoLo-sig2/(beta-rhoLo))
+			lo = max(lo, min(rhoLo-sig2/(beta-rhoLo), rhoHi-sig2/(beta-rhoHi)))
 		}
 		return lo
 	}
@@ -297,7 +299,9 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 			// at strong fields, where σ² is not small against the gap) or
 			// its hypothesis cannot be met, twice the second-order
 			// correction θ − ρ(u) is the better estimate.
-			loE = max(loE, lv.theta-2*(lv.theta-lv.rhoLoU))
+			if pt := lv.theta - 2*(lv.theta-lv.rhoLoU); pt > loE {
+				loE = pt
+			}
 		}
 		eR := max(lv.theta-loR, 0)*(1+4*unit) + 4*unit*math.Abs(lv.theta)
 		eE := max(lv.theta-loE, 0)*(1+4*unit) + 4*unit*math.Abs(lv.theta)
@@ -333,8 +337,8 @@ func (s Solver) moments(w *work, jmax int) (vmin, vabs float64, err error) {
 		quad.Legendre{}.FixedLocations(w.x, w.wt, lo, hi)
 		for i, x := range w.x {
 			v := s.Potential(x)
-			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return 0, 0, fmt.Errorf("basis: Potential(%g) = %v: %w", x, v, tiltwell.ErrUnits)
+			if !(math.Abs(v) <= MaxPotential) {
+				return 0, 0, fmt.Errorf("basis: Potential(%g) = %v, not a finite number of magnitude at most %g: %w", x, v, MaxPotential, tiltwell.ErrUnits)
 			}
 			vmin = min(vmin, v)
 			vabs = max(vabs, math.Abs(v))
