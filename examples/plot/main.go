@@ -30,6 +30,7 @@ import (
 	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/wkb"
 )
 
 // method is one curve family of the picture.
@@ -44,6 +45,7 @@ func methods() []method {
 		{"exact", exact.Solver{}, color.RGBA{A: 255}},
 		{"perturb1", perturb.Solver{Order: 1}, color.RGBA{R: 0xd6, G: 0x27, B: 0x28, A: 255}},
 		{"perturb2", perturb.Solver{Order: 2}, color.RGBA{R: 0xff, G: 0x7f, B: 0x0e, A: 255}},
+		{"wkb", wkb.Solver{}, color.RGBA{R: 0x2c, G: 0xa0, B: 0x2c, A: 255}},
 		{"basis", basis.Solver{}, color.RGBA{R: 0x1f, G: 0x77, B: 0xb4, A: 255}},
 	}
 }
@@ -126,7 +128,7 @@ func curves(fmax float64, k int) (levels, errs *plot.Plot, err error) {
 	errs.Legend.Top = true
 	errs.Legend.Left = false
 	errs.Legend.XOffs = -vg.Millimeter
-	errs.Legend.YOffs = -2 * vg.Millimeter
+	errs.Legend.YOffs = -22 * vg.Millimeter // below the cheap methods' curves, above basis
 	errs.Add(plotter.NewGrid())
 
 	fields := make([]float64, samples)
