@@ -599,8 +599,16 @@ func (r *Report) String() string {
 		verdict = "FAIL"
 	}
 	fmt.Fprintf(&b, "exact.Check of %s: %d levels at %d fields: %s\n", r.Solver, r.Points, r.Fields, verdict)
-	fmt.Fprintf(&b, "  worst absolute error %.3g at f=%g n=%d\n", r.Abs.Value, r.Abs.F, r.Abs.N)
-	fmt.Fprintf(&b, "  worst relative error %.3g at f=%g n=%d\n", r.Rel.Value, r.Rel.F, r.Rel.N)
+	for _, w := range []struct {
+		name string
+		w    Worst
+	}{{"absolute", r.Abs}, {"relative", r.Rel}} {
+		if w.w.Value == 0 {
+			fmt.Fprintf(&b, "  worst %s error 0\n", w.name)
+		} else {
+			fmt.Fprintf(&b, "  worst %s error %.3g at f=%g n=%d\n", w.name, w.w.Value, w.w.F, w.w.N)
+		}
+	}
 	fmt.Fprintf(&b, "  error estimates: %d of %d undershot the true error (%d of them rigorous; %d estimate undershoots allowed)\n",
 		r.Undershoots, r.Points, r.RigorousUndershoots, r.Allowed)
 	for _, p := range r.Undershot {
