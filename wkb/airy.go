@@ -289,8 +289,11 @@ func airyTheta(x float64) (theta, m2 float64) {
 func airyChi(x float64) (chi, dchi float64) {
 	switch {
 	case x < airyLo:
-		beta, m2, _ := airyNeg(x)
-		return math.Pi/4 - beta, math.Sqrt(-x) - 1/(math.Pi*m2)
+		// dχ/dx = √(−x) β′(ζ), with β′ from β = u₁/ζ − c₃/ζ³ + O(ζ^(−5))
+		// (DLMF 9.8.22): the difference √(−x) − 1/(πM²) would cancel.
+		beta, _, z := airyNeg(x)
+		r := 1 / (z * z)
+		return math.Pi/4 - beta, -math.Sqrt(-x) * r * (u1 - 3*c3*r)
 	case x <= airyHi:
 		th, m2 := airyTab(x)
 		d := -1 / (math.Pi * m2)

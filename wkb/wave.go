@@ -99,7 +99,7 @@ func newWave(f, e float64, n int) *wave {
 	case w.x1 < airyLo:
 		w.beta1, _, _ = airyNeg(w.x1)
 		s, _ := action(f, e)
-		w.total = s - w.beta0 + w.beta1 // difference form: no cancellation at small f
+		w.total = math.Pi*s - w.beta0 + w.beta1 // difference form: no cancellation at small f
 	case w.x1 <= airyHi:
 		w.th1, _ = airyTheta(w.x1)
 		w.total = w.th0 - w.th1

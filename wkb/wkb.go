@@ -123,12 +123,12 @@ func (s Solver) level(f, ea float64, n int) (tiltwell.Level, error) {
 		ep = plainE(f, n)
 		guess = ep
 	}
-	ei, dphi, err := connectE(f, ea, n, guess)
+	ei, dpsi, err := connectE(f, ea, n, guess)
 	if err != nil {
 		return tiltwell.Level{}, err
 	}
 	eta := ei - f/2
-	e := connectErr(f, ea, n, ei, dphi)
+	e := connectErr(f, ea, n, ei, dpsi)
 	if s.Plain {
 		eta = ep - f/2
 		e += math.Abs(ep - ei)
@@ -136,21 +136,22 @@ func (s Solver) level(f, ea float64, n int) (tiltwell.Level, error) {
 	return tiltwell.Level{N: n, Energy: eta, Err: e, Bound: tiltwell.Estimate}, nil
 }
 
-// action returns S(e) = ∫ k dξ over the allowed part of the well and dS/de,
-// for f > 0, e > 0:
+// action returns σ = S(e)/π, with S = ∫ k dξ over the allowed part of the
+// well, and dσ/de, for f > 0, e > 0:
 //
 //	e ≤ f:  S = (2π/(3f)) e^(3/2)
 //	e > f:  S = (2π/(3f)) [e^(3/2) − (e − f)^(3/2)]
 //	          = (2π/3) (e + √(e(e−f)) + (e − f)) / (√e + √(e−f))
 //
 // The second line is the difference form, which does not cancel at small f.
+// Phases are carried in units of π so that the quantum number n is exact.
 func action(f, e float64) (s, ds float64) {
+	r := math.Sqrt(e)
 	if e <= f {
-		r := math.Sqrt(e)
-		return 2 * math.Pi / 3 * e * r / f, math.Pi / f * r
+		return 2 * e * r / (3 * f), r / f
 	}
-	a, b := math.Sqrt(e), math.Sqrt(e-f)
-	return 2 * math.Pi / 3 * (e + a*b + (e - f)) / (a + b), math.Pi / (a + b)
+	b := math.Sqrt(e - f)
+	return 2 * (e + r*b + (e - f)) / (3 * (r + b)), 1 / (r + b)
 }
 
 // plainE returns e = η + f/2 of the plain rule, f > 0. The two-wall rule is
@@ -163,14 +164,13 @@ func plainE(f float64, n int) float64 {
 	}
 	// Two walls: S is increasing and concave on e ≥ f, so Newton's steps
 	// land at or below the root after the first, then climb to it.
-	target := fn * math.Pi
 	e := max(fn*fn+f/2+f*f/(48*fn*fn), f)
 	for range 100 {
 		s, ds := action(f, e)
-		next := max(e+(target-s)/ds, f)
-		// S carries rounding of about ε S; a step below what that moves e
+		next := max(e+(fn-s)/ds, f)
+		// σ carries rounding of about ε σ; a step below what that moves e
 		// by is noise.
-		if math.Abs(next-e) <= 2*eps*next+4*eps*(target+1)/ds {
+		if math.Abs(next-e) <= 2*eps*next+2*eps*(fn+1)/ds {
 			return next
 		}
 		e = next
@@ -178,26 +178,27 @@ func plainE(f float64, n int) float64 {
 	return e
 }
 
-// connect returns Φ(e) = S(e) + π/4 − u₁/ζ₀ − χ(x₁) and dΦ/de for f > 0.
-func connect(f, ea, e float64) (phi, dphi float64) {
+// connect returns ψ = Φ/π, Φ(e) = S(e) + π/4 − u₁/ζ₀ − χ(x₁), and dψ/de,
+// for f > 0.
+func connect(f, ea, e float64) (psi, dpsi float64) {
 	r := math.Sqrt(e)
-	z0 := 2 * math.Pi / 3 * e * r / f // ζ₀, and S when e ≤ f
-	dz0 := math.Pi / f * r
-	s, ds := z0, dz0
+	s0 := 2 * e * r / (3 * f) // ζ₀/π, and σ when e ≤ f
+	s, ds := s0, r/f
 	if e > f {
 		b := math.Sqrt(e - f)
-		s, ds = 2*math.Pi/3*(e+r*b+(e-f))/(r+b), math.Pi/(r+b)
+		s, ds = 2*(e+r*b+(e-f))/(3*(r+b)), 1/(r+b)
 	}
+	z0 := math.Pi * s0
 	chi, dchi := airyChi((f - e) / ea)
-	return s + math.Pi/4 - u1/z0 - chi, ds + u1*dz0/(z0*z0) + dchi/ea
+	return s + 0.25 - (u1/z0+chi)/math.Pi, ds + (u1*r/(f*s0*s0)/math.Pi+dchi/ea)/math.Pi
 }
 
 // connectE solves the connection rule for e = η + f/2 by Newton's method on
 // the closed-form phase, kept inside a bracket (Φ increases with e, from −∞
-// at e = 0). A positive guess is used as the starting point.
-func connectE(f, ea float64, n int, guess float64) (e, dphi float64, err error) {
+// at e = 0). A positive guess is used as the starting point. It returns e
+// and dψ/de there.
+func connectE(f, ea float64, n int, guess float64) (e, dpsi float64, err error) {
 	fn := float64(n)
-	target := fn * math.Pi
 	e = guess
 	if !(e > 0) {
 		// One wall with the far-wall correction: ζ₀ − u₁/ζ₀ = (n − ¼)π.
@@ -210,15 +211,15 @@ func connectE(f, ea float64, n int, guess float64) (e, dphi float64, err error) 
 	}
 	lo, hi := 0.0, math.Inf(1)
 	for range 100 {
-		phi, d := connect(f, ea, e)
-		if phi < target {
+		psi, d := connect(f, ea, e)
+		if psi < fn {
 			lo = e
 		} else {
 			hi = e
 		}
-		step := (target - phi) / d
+		step := (fn - psi) / d
 		next := e + step
-		// Φ carries rounding of a few ε (|Φ| + 1); a step below what that
+		// ψ carries rounding of a few ε (|ψ| + 1); a step below what that
 		// moves e by is noise. A step below √ε of the scale on which Φ
 		// bends (e, or the Airy energy while the high wall is within
 		// reach of the table) leaves an error of order ε after it is
@@ -229,7 +230,7 @@ func connectE(f, ea float64, n int, guess float64) (e, dphi float64, err error) 
 		if f-e > airyLo*ea {
 			scale = min(e, ea)
 		}
-		if as <= 2*eps*e+4*eps*(target+1)/d || as <= 0x1p-27*scale {
+		if as <= 2*eps*e+2*eps*(fn+1)/d || as <= 0x1p-27*scale {
 			return next, d, nil
 		}
 		if !(next > lo && next < hi) {
@@ -244,23 +245,22 @@ func connectE(f, ea float64, n int, guess float64) (e, dphi float64, err error) 
 	return 0, 0, fmt.Errorf("wkb: f = %g, n = %d: connection rule did not converge: %w", f, n, tiltwell.ErrNoConvergence)
 }
 
-// connectErr is the connection rule's error estimate for e at level n: the
-// first omitted term of the far-wall phase series, c₃/ζ₀³, turned into an
-// energy by dΦ/de, times errSafety, plus rounding.
-func connectErr(f, ea float64, n int, e, dphi float64) float64 {
+// connectErr is the connection rule's error estimate for e at level n, with
+// dpsi = dψ/de: the first omitted term of the far-wall phase series,
+// c₃/ζ₀³, turned into an energy by dΦ/de, times errSafety, plus rounding.
+func connectErr(f, ea float64, n int, e, dpsi float64) float64 {
 	r := math.Sqrt(e)
 	z0 := 2 * math.Pi / 3 * e * r / f
 	trunc := errSafety * c3 / (z0 * z0 * z0)
-	// Rounding: S ≈ nπ is good to about ε S; the connection phase to
-	// about ε (2 + ζ̄₁) in the table, where it is θ − ζ̄₁ (tested against
-	// the asymptotic series at the table's edge), and 2ε beyond;
+	// Rounding: ψ ≈ n is good to about ε (n + 1); the connection phase
+	// to about ε (2 + ζ̄₁) in the table, where it is θ − ζ̄₁ (tested
+	// against the asymptotic series at the table's edge), and 2ε beyond;
 	// η = e − f/2 rounds at ε (|η| + e)/2.
-	s := float64(n) * math.Pi
 	x1 := (f - e) / ea
 	chiErr := 2 * eps
 	if x1 >= airyLo && x1 <= airyHi {
 		chiErr = eps * (2 + 2.0/3*max(-x1, 0)*math.Sqrt(max(-x1, 0)))
 	}
 	eta := e - f/2
-	return (trunc+eps*(s+1)+chiErr)/dphi + eps*(math.Abs(eta)+e)/2
+	return ((trunc+chiErr)/math.Pi+eps*(float64(n)+1))/dpsi + eps*(math.Abs(eta)+e)/2
 }
