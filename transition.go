@@ -21,9 +21,11 @@ import (
 // hole. The hole, of opposite charge, sees the mirrored tilt, the reduced
 // field −f_h.
 type Pair struct {
-	Width    float64
-	Electron float64
-	Hole     float64
+	// Width is the well width L in metres.
+	Width float64
+	// Electron and Hole are the effective masses m_e and m_h in units of
+	// the electron mass m₀.
+	Electron, Hole float64
 }
 
 // Wells returns the electron's and the hole's [Well]. It returns an error
@@ -43,6 +45,7 @@ func (p Pair) Wells() (electron, hole Well, err error) {
 // hole level H (1 for the ground level): e1–hh1 is Transition{1, 1},
 // e1–hh2 is Transition{1, 2}.
 type Transition struct {
+	// E and H are the electron and hole level numbers, from 1.
 	E, H int
 }
 
