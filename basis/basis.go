@@ -109,7 +109,10 @@ const (
 // the test grid f ≤ 1000, N ≤ 160, every level; none misses the exact
 // value). On that grid the worst Err/true-error ratio is 9.97, at the top
 // level of the basis; below the top two levels it is under 5, and for the
-// converged low levels 1.0–1.3.
+// low levels 1.0–1.8. Where the true error is below the rounding floor
+// (2γ_(2N+2)(Σn²c_n² + 2|f|/3) + 4u|θ|, below), Err is that floor: at
+// N = 160, f = 10 the ground level has Err = 6e-13 for a true error of
+// 3e-15.
 //
 // Rounding is accounted for with explicit allowances, not proven to the
 // last bit: the inner products and sums carry Higham's γ_n = nu/(1 − nu)

@@ -163,7 +163,8 @@ func TestRitzTable(t *testing.T) {
 	}
 }
 
-// The error of the low levels falls as N⁻⁷ (an eigenfunction's odd
+// The error of the low levels falls as N⁻⁷ (derived here, no source: an
+// eigenfunction's odd
 // extension has a jump 2π²fφ′(0) in its fourth derivative, so its sine
 // coefficients fall as m⁻⁵ and the Ritz error as Σ m²c_m² ~ N⁻⁷; the
 // derivation is in the Solver doc). Measured between N = 20, 40, 80.
@@ -581,7 +582,9 @@ func TestMoments(t *testing.T) {
 }
 
 // A potential that is itself a tilt reproduces the tilt result, and a
-// constant offset shifts every level by the constant (closed form).
+// constant offset shifts every level by the constant: operator identities,
+// H₀ + f(ξ − ½) + g(ξ − ½) + c is the tilt f + g shifted by c (common
+// practice, no source). This checks the quadrature path end to end.
 func TestPotentialClosedForms(t *testing.T) {
 	t.Parallel()
 	for _, c := range []struct {
