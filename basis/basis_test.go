@@ -686,3 +686,29 @@ func FuzzLevels(f *testing.F) {
 		}
 	})
 }
+
+// The shared conformance harness: the Solver contract (errors, dst reuse,
+// mirror symmetry, concurrency, wavefunctions) and the error bars against
+// the exact reference with the rules' 10× pessimism limit.
+func TestCheck(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		name string
+		s    Solver
+		k    int
+	}{
+		{"auto", Solver{}, 10},
+		{"N=40", Solver{Size: 40}, 12},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			r, err := exact.Check(c.s, exact.Grid{Fields: []float64{-300, -10, 0, 1e-8, 0.5, 3, 10, 100, 1000}, Levels: c.k, MaxRatio: 10})
+			if err != nil {
+				t.Fatal(err)
+			}
+			t.Logf("abs %.3g (f=%g n=%d), ratio %.3g (f=%g n=%d), undershoots %d", r.Abs.Value, r.Abs.F, r.Abs.N, r.Ratio.Value, r.Ratio.F, r.Ratio.N, r.Undershoots)
+			if !r.OK() {
+				t.Errorf("check failed: %+v", r)
+			}
+		})
+	}
+}
