@@ -110,6 +110,7 @@ type space struct {
 	// search is the level search state (kept here so that the objective
 	// passed to the minimizer needs no allocation).
 	search levelSearch
+	tilt   tiltSearch
 	// brackets is scratch for Levels.
 	brackets [MaxLevels]Bracket
 }

@@ -127,7 +127,8 @@ func (sp *space) funcBounds(rho float64, b0, b1, b2 []float64) {
 		} else {
 			// g = (1 − t²)/4 · Σ c_k t^k = Σ g_k t^k, g_k = (c_k − c_{k−2})/4;
 			// d/dξ = 2 d/dt, |t| ≤ a.
-			for k := 0; k < ncoef+2; k++ {
+			ak := 1.0 // a^k
+			for k := 0; k < ncoef+2; k, ak = k+1, ak*a {
 				gk := 0.0
 				if k < ncoef {
 					gk += c[k]
@@ -140,13 +141,9 @@ func (sp *space) funcBounds(rho float64, b0, b1, b2 []float64) {
 					continue
 				}
 				fk := float64(k)
-				g0 += gk * math.Pow(a, fk)
-				if k >= 1 {
-					g1 += gk * 2 * fk * math.Pow(a, fk-1)
-				}
-				if k >= 2 {
-					g2 += gk * 4 * fk * (fk - 1) * math.Pow(a, fk-2)
-				}
+				g0 += gk * ak
+				g1 += gk * 2 * fk * ak / a
+				g2 += gk * 4 * fk * (fk - 1) * ak / (a * a)
 			}
 		}
 		b0[j] = emax * g0

@@ -70,11 +70,17 @@ type ritzResult struct {
 }
 
 // searchTilt minimizes the n-th Ritz value over β, starting from guess.
-func (sp *space) searchTilt(sh shape, dim, n int, f, guess float64) (beta float64, evals int) {
+// A warm guess (the optimum at a nearby field) starts with a small step,
+// since the optimum moves little between nearby fields; the bracket still
+// grows geometrically if it has moved more.
+func (sp *space) searchTilt(sh shape, dim, n int, f, guess float64, warm bool) (beta float64, evals int) {
 	o := &sp.search
 	o.sh, o.dim, o.n, o.f, o.evals = sh, dim, n, f, 0
 	o.r = rules()[pickRule(dim, guess)]
 	h := 0.25 + 0.2*math.Abs(guess)
+	if warm {
+		h = 0.01 + 0.01*math.Abs(guess)
+	}
 	a, b, c, _, fb, _ := bracketMin(o, guess, h, -maxTilt, maxTilt)
 	if ri := pickRule(dim, b); rules()[ri] != o.r {
 		// The envelope grew beyond what the first rule resolves well.
@@ -96,7 +102,7 @@ func (sp *space) verify(sh shape, dim, n int, f, beta float64) ritzResult {
 	ri := pickRule(dim, beta)
 	for ; ri < len(ruleSizes); ri++ {
 		res = sp.verifyWith(rules()[ri], sh, dim, n, f, beta)
-		if res.ok && res.quad <= 1e-3*roundoff(res.upper, f, dim) && res.rquad <= 1e-3*res.s2 {
+		if res.ok && res.quad <= 1e-3*roundoff(sh, res.upper, f, dim) && res.rquad <= 1e-3*res.s2 {
 			break
 		}
 	}
@@ -156,7 +162,7 @@ func (sp *space) verifyWith(r *rule, sh shape, dim, n int, f, beta float64) ritz
 	// Courant–Fischer: every Rayleigh quotient of the pencil moves by at
 	// most (‖ΔH‖ + Θ‖ΔS‖)/(λ_min(S)), Θ = max |θ_j|.
 	dq := (hErr + big*sErr) / mu
-	ro := roundoff(theta, f, dim)
+	ro := roundoff(sh, theta, f, dim)
 	res.upper = theta + dq + ro
 	res.eLo = theta - dq - ro
 	res.eHi = res.upper
@@ -208,13 +214,21 @@ func (sp *space) gramDefect() float64 {
 }
 
 // roundoff is the allowance added to each side of a bracket for
-// floating-point rounding in the eigensolver and the quadrature sums: a
-// few units in the last place of the level's scale. It is calibrated
-// against the exact reference in the tests, not proven.
-var roundoffScale = 4.0
-
-func roundoff(theta, f float64, dim int) float64 {
-	return roundoffScale * float64(dim) * eps * (math.Abs(theta) + math.Abs(f)/2 + 1)
+// floating-point rounding in the quadrature sums and the eigensolver:
+//
+//	c · d · ε · (|θ| + |f|/2 + 1)
+//
+// for a space of dimension d, with c = 4 for Poly and 16 for Sine (whose
+// tilted sine harmonics are less well conditioned at f → 0). It is
+// calibrated against the exact reference (TestBracketsDense measures the
+// raw Ritz values against it: at most 0.3 units below for Poly and 5.7 for
+// Sine over the dense test grid), not proven.
+func roundoff(sh shape, theta, f float64, dim int) float64 {
+	c := 4.0
+	if sh == sineShape {
+		c = 16
+	}
+	return c * float64(dim) * eps * (math.Abs(theta) + math.Abs(f)/2 + 1)
 }
 
 func sq(x float64) float64 { return x * x }

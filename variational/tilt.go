@@ -128,7 +128,7 @@ func tiltVariance(beta, f float64) (e, s2 float64) {
 // tiltSearch is the objective of the tilt family: E(β) in closed form.
 type tiltSearch struct{ f float64 }
 
-func (o tiltSearch) value(beta float64) float64 { return tiltEnergy(beta, o.f) }
+func (o *tiltSearch) value(beta float64) float64 { return tiltEnergy(beta, o.f) }
 
 // tiltGuess is a starting tilt for the ground level: 0.3225 f, the
 // weak-field optimum (from dE/dβ = 0 with coth β − 1/β ≈ β/3:

@@ -469,13 +469,13 @@ func TestWarmStart(t *testing.T) {
 	cold, warm := 0, 0
 	prev := 0.0
 	for i, f := range []float64{50, 51, 52, 53} {
-		_, ec := sp.searchTilt(polyShape, s.dim(1), 1, f, ritzGuess(polyShape, f))
+		_, ec := sp.searchTilt(polyShape, s.dim(1), 1, f, ritzGuess(polyShape, f), false)
 		cold += ec
 		if i == 0 {
-			prev, _ = sp.searchTilt(polyShape, s.dim(1), 1, f, ritzGuess(polyShape, f))
+			prev, _ = sp.searchTilt(polyShape, s.dim(1), 1, f, ritzGuess(polyShape, f), false)
 			continue
 		}
-		b, ew := sp.searchTilt(polyShape, s.dim(1), 1, f, prev)
+		b, ew := sp.searchTilt(polyShape, s.dim(1), 1, f, prev, true)
 		warm += ew
 		prev = b
 	}

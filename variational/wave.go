@@ -25,7 +25,9 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	af, neg := tiltwell.Fold(f)
 	var w tiltwell.Wavefunction
 	if s.Family == Tilt {
-		b := tiltBracket(af, tiltGuess(af))
+		sp := spacePool.Get().(*space)
+		b := sp.tiltBracket(af, tiltGuess(af))
+		spacePool.Put(sp)
 		ss, _, _, _, _, _ := tiltMoments(b.Tilt)
 		// ∫ sin²(πξ) e^(−2β(ξ−½)) dξ = cosh β · ss.
 		norm := math.Sqrt(math.Cosh(b.Tilt) * ss)
@@ -43,7 +45,7 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 		guess := ritzGuess(sh, af)
 		var beta float64
 		for m := 1; m <= n; m++ {
-			beta, _ = sp.searchTilt(sh, s.dim(m), m, af, guess)
+			beta, _ = sp.searchTilt(sh, s.dim(m), m, af, guess, false)
 			guess = beta
 		}
 		dim := s.dim(n)
