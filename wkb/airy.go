@@ -27,11 +27,12 @@ import (
 const (
 	airyLo   = -16.0 // ζ = 42.7: the phase series reaches ~1e-17 (smallest term ~ e^(−2ζ))
 	airyHi   = 12.0  // ζ = 27.7: Ai/Bi < 1e-23, and DLMF 9.7.5–9.7.6 reach ~1e-24
-	airyStep = 0.25
+	airyStep = 0.125
 	airyN    = int((airyHi-airyLo)/airyStep) + 1
-	// airyOrder is the number of Taylor coefficients kept per node:
-	// (airyStep/2 / 2)^16 ≈ 5e-20.
-	airyOrder = 16
+	// airyOrder is the number of Taylor coefficients kept per node. The
+	// series of M² converges like (|t|/2)^k on x < 0 and like
+	// (2√x |t|)^k/k! where M² ≈ Bi² grows (x ≤ 12): 1e-16 at |t| = 1/16.
+	airyOrder = 14
 	// airyTerms is the number of coefficients u_k kept (DLMF 9.7.2).
 	airyTerms = 40
 )
@@ -261,7 +262,7 @@ func airyNeg(x float64) (beta, m2, z float64) {
 // series about the nearest table node.
 func airyTab(x float64) (theta, m2 float64) {
 	tab := airyTable()
-	i := int(math.Round((x - airyLo) / airyStep))
+	i := int((x-airyLo)*(1/airyStep) + 0.5) // x ≥ airyLo: truncation rounds
 	nd := &tab[max(0, min(airyN-1, i))]
 	t := x - nd.x
 	theta, m2 = nd.thc[airyOrder-1], nd.m2c[airyOrder-1]

@@ -55,7 +55,7 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 		e = plainE(af, n)
 	} else {
 		var err error
-		if e, _, err = connectE(af, airyEnergy(af), n, 0); err != nil {
+		if e, _, err = connectE(af, airyEnergy(af), n); err != nil {
 			return nil, err
 		}
 	}
