@@ -36,6 +36,7 @@ import (
 	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/variational"
 )
 
 // options are the parsed flags.
@@ -65,6 +66,9 @@ var solvers = map[string]func(o options) (tiltwell.Solver, error){
 	"exact":    func(options) (tiltwell.Solver, error) { return exact.Solver{}, nil },
 	"perturb1": func(options) (tiltwell.Solver, error) { return perturb.Solver{Order: 1}, nil },
 	"perturb2": func(options) (tiltwell.Solver, error) { return perturb.Solver{Order: 2}, nil },
+	"variational": func(options) (tiltwell.Solver, error) {
+		return variational.Solver{}, nil
+	},
 	"basis": func(o options) (tiltwell.Solver, error) {
 		if o.basisSize < 0 {
 			return nil, usageError{fmt.Sprintf("-basis-size %d: must be 0 (default) or positive", o.basisSize)}
