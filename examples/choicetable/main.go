@@ -27,6 +27,7 @@ import (
 	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/variational"
 	"github.com/tiltwell/tiltwell/wkb"
 )
 
@@ -37,6 +38,7 @@ func candidates() []tiltwell.Candidate {
 		{Name: "perturb2", Solver: perturb.Solver{Order: 2}},
 		{Name: "wkb-plain", Solver: wkb.Solver{Plain: true}},
 		{Name: "wkb", Solver: wkb.Solver{}},
+		{Name: "variational", Solver: variational.Solver{}},
 		{Name: "basis", Solver: basis.Solver{}},
 		{Name: "exact", Solver: exact.Solver{}},
 	}

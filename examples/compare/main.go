@@ -31,6 +31,7 @@ import (
 	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/variational"
 	"github.com/tiltwell/tiltwell/wkb"
 )
 
@@ -47,6 +48,7 @@ func methods() []method {
 		{"perturb2", perturb.Solver{Order: 2}},
 		{"wkb-plain", wkb.Solver{Plain: true}},
 		{"wkb", wkb.Solver{}},
+		{"variational", variational.Solver{}},
 		{"basis", basis.Solver{}},
 		{"exact", exact.Solver{}},
 	}

@@ -30,6 +30,7 @@ import (
 	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/variational"
 	"github.com/tiltwell/tiltwell/wkb"
 )
 
@@ -46,6 +47,7 @@ func methods() []method {
 		{"perturb1", perturb.Solver{Order: 1}, color.RGBA{R: 0xd6, G: 0x27, B: 0x28, A: 255}},
 		{"perturb2", perturb.Solver{Order: 2}, color.RGBA{R: 0xff, G: 0x7f, B: 0x0e, A: 255}},
 		{"wkb", wkb.Solver{}, color.RGBA{R: 0x2c, G: 0xa0, B: 0x2c, A: 255}},
+		{"variational", variational.Solver{}, color.RGBA{R: 0x94, G: 0x67, B: 0xbd, A: 255}},
 		{"basis", basis.Solver{}, color.RGBA{R: 0x1f, G: 0x77, B: 0xb4, A: 255}},
 	}
 }
