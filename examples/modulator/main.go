@@ -13,7 +13,7 @@
 //
 // Usage:
 //
-//	go run ./examples/modulator [-method exact|basis|perturb] [-kv 0,20,...]
+//	go run ./examples/modulator [-method exact|basis|perturb|variational|wkb] [-kv 0,20,...]
 package main
 
 import (
@@ -30,24 +30,28 @@ import (
 	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/variational"
+	"github.com/tiltwell/tiltwell/wkb"
 )
 
 // demoPair is the invented demo device: a 10 nm well with GaAs masses.
 var demoPair = tiltwell.Pair{Width: 10e-9, Electron: 0.067, Hole: 0.3497}
 
 var solvers = map[string]tiltwell.WaveSolver{
-	"exact":   exact.Solver{},
-	"basis":   basis.Solver{},
-	"perturb": perturb.Solver{Order: 2},
+	"exact":       exact.Solver{},
+	"basis":       basis.Solver{},
+	"perturb":     perturb.Solver{Order: 2},
+	"variational": variational.Solver{},
+	"wkb":         wkb.Solver{},
 }
 
 func main() {
-	name := flag.String("method", "exact", "solver: exact, basis or perturb")
+	name := flag.String("method", "exact", "solver: exact, basis, perturb, variational or wkb")
 	kvs := flag.String("kv", "0,20,40,60,80,100,120,140,160,180,200", "comma-separated fields in kV/cm")
 	flag.Parse()
 	s, ok := solvers[*name]
 	if !ok {
-		fmt.Fprintf(os.Stderr, "modulator: unknown -method %q (exact, basis or perturb)\n", *name)
+		fmt.Fprintf(os.Stderr, "modulator: unknown -method %q (exact, basis, perturb, variational or wkb)\n", *name)
 		os.Exit(2)
 	}
 	var fields []float64
