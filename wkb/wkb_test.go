@@ -121,6 +121,23 @@ func TestLowFieldCoefficients(t *testing.T) {
 	cn := []float64{-0.0108295365548972, 0.00322940396531892, 0.00192391518656505, 0.00117840024783243, 0.000782672741512164}
 	for i, c := range cn {
 		n := i + 1
+		t.Run(fmt.Sprintf("n=%d/f=1e-4", n), func(t *testing.T) {
+			t.Parallel()
+			// Cancellation: (η + f/2)^(3/2) − (η − f/2)^(3/2) formed
+			// directly would lose 1e-12 of the shift's 1e-10 here; the
+			// difference form keeps it to rounding of η (2e-6 of the
+			// shift at n = 1).
+			const f = 1e-4
+			nn := float64(n * n)
+			p := levelAt(t, wkb.Solver{Plain: true}, f, n)
+			if got, want := (p.Energy-nn)/(f*f), 1/(48*nn); math.Abs(got-want) > 4*ulp(nn)/(f*f) {
+				t.Errorf("plain (η − n²)/f² = %.12g, want 1/(48n²) = %.12g", got, want)
+			}
+			l := levelAt(t, wkb.Solver{}, f, n)
+			if got := (l.Energy - nn) / (f * f); math.Abs(got-c) > (l.Err+4*ulp(nn))/(f*f) {
+				t.Errorf("connection (η − n²)/f² = %.12g, want C_n = %.12g", got, c)
+			}
+		})
 		t.Run(fmt.Sprintf("n=%d", n), func(t *testing.T) {
 			t.Parallel()
 			nn := float64(n * n)
@@ -499,6 +516,18 @@ func FuzzLevels(f *testing.F) {
 			}
 			if i > 0 && !(l.Energy > ls[i-1].Energy) {
 				t.Fatalf("Levels(%g, %d): levels %d, %d out of order: %v, %v", fl, k, i, i+1, ls[i-1].Energy, l.Energy)
+			}
+		}
+		if k > 20 {
+			return
+		}
+		w, err := s.Wavefunction(fl, k)
+		if err != nil {
+			t.Fatalf("Wavefunction(%g, %d): %v after Levels succeeded", fl, k, err)
+		}
+		for _, x := range []float64{0, 0.1, 0.37, 0.5, 0.93, 1} {
+			if v := w.At(x); math.IsNaN(v) || math.IsInf(v, 0) {
+				t.Fatalf("Wavefunction(%g, %d).At(%g) = %v", fl, k, x, v)
 			}
 		}
 	})
