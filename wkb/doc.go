@@ -77,7 +77,7 @@
 // import package exact): a table of Taylor series of θ and M² on
 // [−16, 12], built once from DLMF 9.2.3–9.2.6 by Taylor steps of
 // w″ = x w, and the asymptotic expansions DLMF 9.7.5–9.7.11 beyond. It is
-// accurate to about 2e-15 (tested against DLMF and check-values.md §1).
+// accurate to about 5e-15 (tested against DLMF and check-values.md §1).
 //
 // References:
 //   - D. J. Griffiths, Introduction to Quantum Mechanics, 2nd ed. (Pearson,
