@@ -1,20 +1,9 @@
 package tiltwell
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"time"
-)
-
-// Errors returned by [Choose] and [Pair.Sweep].
-var (
-	// ErrNoSolver reports a missing solver: an empty candidate list for
-	// [Choose], or a nil [Solver] where one is needed.
-	ErrNoSolver = errors.New("tiltwell: no solver given")
-	// ErrNoneMeets reports that no candidate's own error estimates met the
-	// tolerance; [Choose] still returns the report of every candidate.
-	ErrNoneMeets = errors.New("tiltwell: no candidate meets the tolerance")
 )
 
 // Candidate is a named [Solver] offered to [Choose].

@@ -2,13 +2,17 @@
 // infinitely high walls under a uniform electric field (the quantum-confined
 // Stark effect), by several methods behind one interface.
 //
-// The root package holds only the shared vocabulary: reduced units and the
+// The root package holds the shared vocabulary: reduced units and the
 // physical scale ([Well]), the [Level] result, the [Solver] and [WaveSolver]
 // interfaces, the [Bound] kind of an error estimate, the sentinel errors
 // every method wraps, and helpers shared by all methods (argument checks,
-// mirror symmetry for negative fields). The methods live in their own
-// packages (exact, perturb, variational, wkb, basis); this package imports
-// none of them.
+// mirror symmetry for negative fields). On top of it sit [Choose], which
+// picks the cheapest of several candidate solvers whose own error estimates
+// meet a tolerance, and [Pair], which turns an electron and a hole in one
+// well into transition red shifts and overlaps over a field sweep. The
+// methods live in their own packages (exact, perturb, variational, wkb,
+// basis); this package imports none of them, so a caller passes the
+// candidates in, as users of hash.Hash pass a crc32 or an fnv.
 //
 // # Reduced units
 //

@@ -23,6 +23,12 @@ var (
 	// ErrUnits reports a physical parameter (width, mass, tolerance) that
 	// is not a finite positive number.
 	ErrUnits = errors.New("tiltwell: invalid physical parameter")
+	// ErrNoSolver reports a missing solver: an empty candidate list for
+	// [Choose], or a nil [Solver] where one is needed.
+	ErrNoSolver = errors.New("tiltwell: no solver given")
+	// ErrNoneMeets reports that no candidate's own error estimates met the
+	// tolerance; [Choose] still returns the report of every candidate.
+	ErrNoneMeets = errors.New("tiltwell: no candidate meets the tolerance")
 )
 
 // RangeError is returned for a finite field outside the range a method

@@ -74,16 +74,14 @@ func ddCbrt(x dd) dd {
 	return dd{h, l}
 }
 
-// Constants in double-double. π = πHi + πLo to 107 bits; the low part is
-// the float64 nearest to π − πHi (π to 34 digits,
-// 3.141592653589793238462643383279503, from memory, checked in the tests
-// against sums of the DLMF values of Airy zeros and phases).
+// Constants in double-double. π = πHi + πLo to 107 bits, the low part
+// being the float64 nearest to π − fl(π) (checked in TestDoubleDouble
+// against π from Machin's formula at 256 bits).
 var (
-	ddPi    = dd{math.Pi, 1.2246467991473532e-16}
-	ddPi2   = ddMul(ddPi, ddPi)
-	ddPi4   = dd{math.Pi / 4, 1.2246467991473532e-16 / 4}
-	ddTwo3  = dd{2.0 / 3, 3.700743415417188e-17} // 2/3 = 0.6666…; lo = 2/3 − fl(2/3)
-	ddThird = dd{1.0 / 3, 1.850371707708594e-17}
+	ddPi   = dd{math.Pi, 1.2246467991473532e-16}
+	ddPi2  = ddMul(ddPi, ddPi)
+	ddPi4  = dd{math.Pi / 4, 1.2246467991473532e-16 / 4}
+	ddTwo3 = dd{2.0 / 3, 3.700743415417188e-17} // lo = 2/3 − fl(2/3)
 )
 
 // ddDiv returns x/y.
