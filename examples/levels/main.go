@@ -37,6 +37,7 @@ import (
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/perturb"
 	"github.com/tiltwell/tiltwell/variational"
+	"github.com/tiltwell/tiltwell/wkb"
 )
 
 // options are the parsed flags.
@@ -69,6 +70,7 @@ var solvers = map[string]func(o options) (tiltwell.Solver, error){
 	"variational": func(options) (tiltwell.Solver, error) {
 		return variational.Solver{}, nil
 	},
+	"wkb": func(o options) (tiltwell.Solver, error) { return wkb.Solver{Plain: o.wkbPlain}, nil },
 	"basis": func(o options) (tiltwell.Solver, error) {
 		if o.basisSize < 0 {
 			return nil, usageError{fmt.Sprintf("-basis-size %d: must be 0 (default) or positive", o.basisSize)}
@@ -92,6 +94,9 @@ func parse(args []string) (options, error) {
 	}
 	if fs.NArg() > 0 {
 		return o, usageError{fmt.Sprintf("unexpected argument %q", fs.Arg(0))}
+	}
+	if o.wkbPlain && o.method != "wkb" {
+		return o, usageError{"-wkb-plain goes with -method wkb"}
 	}
 	if _, ok := solvers[o.method]; !ok {
 		return o, usageError{fmt.Sprintf("unknown method %q (want one of %s)", o.method, methodNames())}
