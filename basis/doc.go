@@ -11,8 +11,8 @@
 //	⟨m|H|n⟩ = m² δ_mn + f ⟨m|ξ − ½|n⟩,
 //	⟨m|ξ − ½|n⟩ = −8mn / (π² (m² − n²)²)   for m + n odd, 0 otherwise,
 //
-// (the dipole matrix elements of the infinite well; shared/reference
-// check-values §3). One symmetric eigen-decomposition (gonum's LAPACK)
+// (the dipole matrix elements of the infinite well, from the integral of
+// ξ sin(mπξ) sin(nπξ)). One symmetric eigen-decomposition (gonum's LAPACK)
 // gives all N Ritz values at once; they are upper bounds on the
 // exact levels (Hylleraas–Undheim–MacDonald) and decrease monotonically,
 // interlacing, as N grows. The lowest levels converge as N⁻⁷ (see

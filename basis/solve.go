@@ -31,8 +31,7 @@ func dipole(m, n int) float64 {
 	return -eightP * fm * fn / (d * d)
 }
 
-// airyTable holds |a_j|, j = 1..10, the zeros of Ai, DLMF Table 9.9.1
-// (digits as in shared/reference/check-values §1b).
+// airyTable holds |a_j|, j = 1..10, the zeros of Ai, DLMF Table 9.9.1.
 var airyTable = [...]float64{
 	2.338107410459767,
 	4.0879494441309706,

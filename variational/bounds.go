@@ -3,8 +3,7 @@ package variational
 import "math"
 
 // airyZeros holds |a_k|, k = 1..10, the magnitudes of the zeros of Ai, from
-// DLMF Table 9.9.1 (https://dlmf.nist.gov/9.9#T1; 16 digits as listed in
-// ../shared/reference/check-values.md §1b).
+// DLMF Table 9.9.1 (https://dlmf.nist.gov/9.9#T1), to 16 digits.
 var airyZeros = [...]float64{
 	2.338107410459767,
 	4.0879494441309706,
@@ -70,8 +69,7 @@ const eps = 0x1p-52
 // whose trial function has Rayleigh quotient E ∈ [eLo, eHi] and variance at
 // most s2, given α ≤ the next level above it, and whether its condition
 // eHi < α holds (G. Temple, Proc. R. Soc. Lond. A 119, 276 (1928); see
-// ../shared/reference/check-values.md §8 and the package documentation for
-// the form used for excited levels).
+// the package documentation for the form used for excited levels).
 func templeLower(eLo, eHi, s2, alpha float64) (float64, bool) {
 	if !(eHi < alpha) {
 		return math.Inf(-1), false

@@ -120,6 +120,4 @@
 //   - L. N. Trefethen, "Is Gauss quadrature better than Clenshaw–Curtis?",
 //     SIAM Rev. 50, 67 (2008).
 //   - NIST DLMF, §9.9 (zeros of Ai), https://dlmf.nist.gov/9.9.
-//   - ../shared/reference/check-values.md §1b, §4, §8 for the values the
-//     tests use.
 package variational

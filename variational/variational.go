@@ -203,8 +203,7 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 //
 //	η_n ≥ E − σ²/(α − E)   when E < α
 //
-// (G. Temple, Proc. R. Soc. Lond. A 119, 276 (1928);
-// ../shared/reference/check-values.md §8). See the package documentation
+// (G. Temple, Proc. R. Soc. Lond. A 119, 276 (1928)). See the package documentation
 // for the proof for excited levels and for the choice of α. When E ≥ α the
 // lower bound is Weinstein's E − σ (D. H. Weinstein, Proc. Natl. Acad. Sci.
 // USA 20, 529 (1934)), which is marked Estimate: it brackets some level, and

@@ -19,7 +19,7 @@
 //
 // a blue shift for every level, while the true ground level shifts to the
 // red, η₁ ≈ 1 − 0.01083 f² (the second-order coefficient
-// (n²π² − 15)/(48 n⁴ π²); check-values.md §3 and §9). The plain rule is
+// (n²π² − 15)/(48 n⁴ π²), second-order perturbation theory). The plain rule is
 // wrong by −5 f²/(16 π² n⁴) there, which is the next order of the WKB
 // series, and its Err shows it: at n = 1 Err ≈ 0.032 f², more than the
 // shift 0.021 f² it predicts, so it does not even claim the sign.
@@ -77,7 +77,7 @@
 // import package exact): a table of Taylor series of θ and M² on
 // [−16, 12], built once from DLMF 9.2.3–9.2.6 by Taylor steps of
 // w″ = x w, and the asymptotic expansions DLMF 9.7.5–9.7.11 beyond. It is
-// accurate to about 5e-15 (tested against DLMF and check-values.md §1).
+// accurate to about 5e-15 (tested against DLMF values).
 //
 // References:
 //   - D. J. Griffiths, Introduction to Quantum Mechanics, 2nd ed. (Pearson,
