@@ -30,6 +30,7 @@ import "math"
 const nTaylor = 18
 
 type nodeSeries struct {
+	nt           int // terms of c and d needed at |δ| ≤ airyStep/2
 	z, theta, m2 float64
 	thetaLo      float64          // Θ_j − theta, to 106 bits in all
 	c, d         [nTaylor]float64 // phase series (see above)
@@ -59,8 +60,30 @@ func buildSeries() []nodeSeries {
 			ai: taylor(nd.z, nd.ai, nd.aip),
 			bi: taylor(nd.z, nd.bi, nd.bip),
 		}
+		s[j].nt = termsNeeded(&s[j])
 	}
 	return s
+}
+
+// termsNeeded returns how many terms of the phase series c, d keep the
+// omitted terms below 2^−60 of the series' size (|c| ≈ |δ|/π, |d| ≈ M_j²)
+// at |δ| = airyStep/2; past the first few the coefficients fall
+// factorially, so the first omitted terms dominate the tail. A test checks
+// the truncated sums against the full ones over each node's interval.
+func termsNeeded(s *nodeSeries) int {
+	h := airyStep / 2
+	small := func(k int) bool {
+		hk := math.Pow(h, float64(k))
+		return math.Abs(s.c[k])*hk <= 0x1p-60*h/math.Pi && math.Abs(s.d[k])*hk <= 0x1p-60*s.m2
+	}
+	// Two omitted terms in a row must be small: the three-term recurrence
+	// can make a single coefficient small by accident.
+	for n := 2; n+1 < nTaylor; n++ {
+		if small(n) && small(n+1) {
+			return n
+		}
+	}
+	return nTaylor
 }
 
 // node returns the table node nearest to z, which must lie in
@@ -120,16 +143,28 @@ func phaseDD(zd dd) (theta dd, p float64) {
 		th, p := phase(z)
 		return dd{th, 0}, p
 	}
+	s, cs, ds := tableCD(zd)
+	return ddAdd(dd{s.theta, s.thetaLo}, dd{math.Atan2(cs, ds), 0}), s.m2 / (math.Pi * (cs*cs + ds*ds))
+}
+
+// inTable reports whether z is in the node table's range.
+func inTable(z float64) bool { return z > -negStart && z < posStart }
+
+// tableCD returns the node nearest to z = zd.hi + zd.lo (in the table's
+// range) and the phase series c(z), d(z) about it.
+func tableCD(zd dd) (s *nodeSeries, cs, ds float64) {
+	z := zd.hi
 	j := int(math.Round((z - airyZMin) / airyStep))
 	j = min(max(j, 0), len(series)-1)
-	s := &series[j]
+	s = &series[j]
 	d := (z - s.z) + zd.lo // z − z_j is exact: |z − z_j| ≤ 1/8
-	cs, ds := s.c[nTaylor-1], s.d[nTaylor-1]
-	for k := nTaylor - 2; k >= 0; k-- {
+	nt := s.nt
+	cs, ds = s.c[nt-1], s.d[nt-1]
+	for k := nt - 2; k >= 0; k-- {
 		cs = cs*d + s.c[k]
 		ds = ds*d + s.d[k]
 	}
-	return ddAdd(dd{s.theta, s.thetaLo}, dd{math.Atan2(cs, ds), 0}), s.m2 / (math.Pi * (cs*cs + ds*ds))
+	return s, cs, ds
 }
 
 // phase returns the continuous phase Θ(z) = atan2(Ai(z), Bi(z)), Θ(0) = π/6

@@ -77,7 +77,6 @@ type state struct {
 	n          int
 	x0, x1     float64 // −z₀, −z₁; x₀ = x₁ + α
 	p0, p1     float64 // 1/(π M²) at z₀ and z₁
-	th1        float64 // Θ(z₁) (separate regime only)
 	asym       bool    // both walls in the modulus–phase range
 	gp         float64 // ∂G/∂η at the last evaluation
 	err        float64
@@ -131,10 +130,26 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 		return g, gp, gerr
 	}
 	st.asym = false
-	th0, p0 := phaseDD(ddNeg(x0))
-	th1, p1 := phaseDD(ddNeg(x1))
-	st.p0, st.p1, st.th1 = p0, p1, th1.hi
-	g = ddAdd(ddAdd(th0, ddNeg(th1)), ddNeg(np)).hi
+	z0, z1 := ddNeg(x0), ddNeg(x1)
+	var p0, p1 float64
+	if inTable(z0.hi) && inTable(z1.hi) {
+		// Both walls in the node table: Θ₀ − Θ₁ = (Θ_j0 − Θ_j1) +
+		// atan2(c₀,d₀) − atan2(c₁,d₁), and the two small angles (each
+		// below 0.46) combine into one atan2 of the rotated vector.
+		s0, c0, d0 := tableCD(z0)
+		s1, c1, d1 := tableCD(z1)
+		ang := math.Atan2(c0*d1-c1*d0, d0*d1+c0*c1)
+		k := ddAdd(ddAdd(dd{s0.theta, s0.thetaLo}, dd{-s1.theta, -s1.thetaLo}), ddNeg(np))
+		g = ddAdd(k, dd{ang, 0}).hi
+		p0 = s0.m2 / (math.Pi * (c0*c0 + d0*d0))
+		p1 = s1.m2 / (math.Pi * (c1*c1 + d1*d1))
+	} else {
+		th0, q0 := phaseDD(z0)
+		th1, q1 := phaseDD(z1)
+		g = ddAdd(ddAdd(th0, ddNeg(th1)), ddNeg(np)).hi
+		p0, p1 = q0, q1
+	}
+	st.p0, st.p1 = p0, p1
 	gp = a / f * (p0 - p1)
 	// Each phase is Θ_j (106 bits) plus a rounded angle below 1/2, or a
 	// double-double leading term plus a rounded correction.

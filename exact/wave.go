@@ -21,6 +21,7 @@ import (
 type Wave struct {
 	st    state
 	norm  float64 // (−1)^(n+1) N
+	th1   float64 // Θ(z₁), when the walls are not both in the modulus–phase range
 	scale float64 // √(1 + (Ai/Bi)²(z₁)) for the far right tail
 	zero  bool    // f = 0 or tiny: √2 sin(nπξ)
 	n     int
@@ -59,7 +60,7 @@ func (w *Wave) At(xi float64) float64 {
 		return w.norm * v / w.scale
 	}
 	th, m2 := phaseM2(z)
-	return w.norm * math.Sqrt(m2) * math.Sin(th-st.th1)
+	return w.norm * math.Sqrt(m2) * math.Sin(th-w.th1)
 }
 
 // phaseM2 returns Θ(z) and M²(z) for z < posStart.
@@ -113,6 +114,9 @@ func newWave(f float64, n int) (*Wave, error) {
 // those of its final η.
 func waveOf(st state) *Wave {
 	w := &Wave{n: st.n, scale: 1, st: st}
+	if !st.asym {
+		w.th1, _ = phase(-st.x1)
+	}
 	sign := 1.0
 	if st.n%2 == 0 {
 		sign = -1
