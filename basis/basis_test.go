@@ -3,6 +3,7 @@ package basis
 import (
 	"errors"
 	"fmt"
+	"github.com/tiltwell/tiltwell/internal/floor"
 	"math"
 	"sync"
 	"testing"
@@ -499,37 +500,14 @@ func TestConcurrent(t *testing.T) {
 	wg.Wait()
 }
 
-// The Airy-zero lower bounds: the table is DLMF Table 9.9.1 (check-values
-// §1b) and must agree with exact.AiZero; beyond it the asymptotic form
-// DLMF 9.9.6 less its margin must stay below |a_j| and within 2e-9.
-func TestAiryZeros(t *testing.T) {
-	t.Parallel()
-	for j := 1; j <= 1000; j++ {
-		a, err := exact.AiZero(j)
-		if err != nil {
-			t.Fatal(err)
-		}
-		got := airyZeroLower(j)
-		if j <= len(airyTable) {
-			if math.Abs(got+a) > 4e-15*got {
-				t.Errorf("a_%d table %.17g, exact %.17g", j, got, a)
-			}
-			continue
-		}
-		if got > -a || (-a-got) > 2e-9*got {
-			t.Errorf("j=%d: lower bound %.17g vs |a_j| = %.17g", j, got, -a)
-		}
-	}
-}
-
-// crude is a lower bound on every level (the operator and domain
+// floor.Level is a lower bound on every level (the operator and domain
 // comparisons in the Solver doc).
 func TestCrudeBounds(t *testing.T) {
 	t.Parallel()
 	for _, f := range append(gridFields, 3000, 1e4, 1e5) {
 		ex := exactLevels(t, f)
 		for j, l := range ex {
-			if c := crude(f, j+1); c > l.Energy {
+			if c := floor.Level(f, j+1); c > l.Energy {
 				t.Errorf("f=%g n=%d: crude %.17g above exact %.17g", f, j+1, c, l.Energy)
 			}
 		}

@@ -2,6 +2,7 @@ package basis
 
 import (
 	"fmt"
+	"github.com/tiltwell/tiltwell/internal/floor"
 	"math"
 
 	"github.com/tiltwell/tiltwell"
@@ -29,46 +30,6 @@ func dipole(m, n int) float64 {
 	fm, fn := float64(m), float64(n)
 	d := (fm - fn) * (fm + fn) // exact for m, n < 2²⁶
 	return -eightP * fm * fn / (d * d)
-}
-
-// airyTable holds |a_j|, j = 1..10, the zeros of Ai, DLMF Table 9.9.1.
-var airyTable = [...]float64{
-	2.338107410459767,
-	4.0879494441309706,
-	5.5205598280955511,
-	6.786708090071759,
-	7.9441335871208531,
-	9.0226508533409804,
-	10.040174341558086,
-	11.008524303733263,
-	11.936015563236263,
-	12.828776752865757,
-}
-
-// airyZeroLower returns a lower bound on |a_j|: the table for j ≤ 10, and
-// beyond the asymptotic form a_j = −T(3π(4j − 1)/8),
-// T(t) = t^(2/3)(1 + (5/48)t⁻² − (5/36)t⁻⁴ + …) (DLMF 9.9.6, 9.9.18),
-// reduced by a relative 1e-9, far more than the omitted t⁻⁶ term
-// (77125/82944)t⁻⁶ < 7e-11 for j ≥ 11 (coefficient from memory; the test
-// against exact.AiZero measures the margin).
-func airyZeroLower(j int) float64 {
-	if j <= len(airyTable) {
-		return airyTable[j-1]
-	}
-	t := 3 * math.Pi * (4*float64(j) - 1) / 8
-	it2 := 1 / (t * t)
-	return math.Pow(t, 2.0/3) * (1 + it2*(5.0/48-it2*5.0/36)) * (1 - 1e-9)
-}
-
-// crude returns a lower bound on level j of the tilted well, the larger of
-// j² − |f|/2 (H ≥ H₀ − |f|/2) and −|f|/2 + |a_j|(|f|/π)^(2/3) (domain
-// monotonicity against the triangular well), less a rounding allowance.
-func crude(f float64, j int) float64 {
-	af := math.Abs(f)
-	jj := float64(j) * float64(j)
-	tri := airyZeroLower(j) * math.Cbrt(af*af/(math.Pi*math.Pi))
-	lo := max(jj, tri) - af/2
-	return lo - 8*unit*(jj+tri+af)
 }
 
 // rigorousSlack is how much wider than the estimated bracket a proven
@@ -258,7 +219,7 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 		}
 		return lo
 	}
-	betaR := crude(f, kk+1) + vmin
+	betaR := floor.Level(f, kk+1) + vmin
 	betaE := betaR
 	for j := kk - 1; j >= 0; j-- {
 		lv := &w.lv[j]
@@ -271,7 +232,7 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 		default:
 			next = lv.theta + 3
 		}
-		crudeLo := crude(f, j+1) + vmin
+		crudeLo := floor.Level(f, j+1) + vmin
 		loR := temple(crudeLo, lv.rhoLoP, lv.rhoHiP, lv.sig2P, betaR)
 		if lv.improved {
 			loR = temple(loR, lv.rhoLoU, lv.rhoHiU, lv.sig2U, betaR)

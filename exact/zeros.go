@@ -24,11 +24,13 @@ func findZero(k int) float64 {
 	t := 3 * math.Pi * (4*float64(k) - 1) / 8
 	it2 := 1 / (t * t)
 	z := -math.Pow(t, 2.0/3) * (1 + it2*(5.0/48-it2*5.0/36))
-	target := float64(k) * math.Pi
+	// The residual Θ(z) − kπ in double-double, so that the phase's own
+	// size (up to ~kπ) does not limit the zero's accuracy.
+	target := ddNeg(ddMulF(ddPi, float64(k)))
 	for range 8 {
-		th, p := phase(z)
+		th, p := phaseDD(dd{z, 0})
 		// Θ′ = −p, so Newton's step for Θ(z) − kπ is +(Θ − kπ)/p.
-		dz := (th - target) / p
+		dz := ddAdd(th, target).hi / p
 		z += dz
 		if math.Abs(dz) <= 1e-17*math.Abs(z) {
 			break

@@ -2,67 +2,6 @@ package variational
 
 import "math"
 
-// airyZeros holds |a_k|, k = 1..10, the magnitudes of the zeros of Ai, from
-// DLMF Table 9.9.1 (https://dlmf.nist.gov/9.9#T1), to 16 digits.
-var airyZeros = [...]float64{
-	2.338107410459767,
-	4.0879494441309706,
-	5.5205598280955511,
-	6.786708090071759,
-	7.9441335871208531,
-	9.0226508533409804,
-	10.040174341558086,
-	11.008524303733263,
-	11.936015563236263,
-	12.828776752865757,
-}
-
-// airyZero returns |a_k|, the magnitude of the k-th zero of Ai (k ≥ 1):
-// the table above for k ≤ 10, and beyond it the asymptotic expansion
-//
-//	a_k = −T(3π(4k − 1)/8),
-//	T(t) ~ t^(2/3) (1 + 5/48 t⁻² − 5/36 t⁻⁴ + 77125/82944 t⁻⁶
-//	        − 108056875/6967296 t⁻⁸ + 162375596875/334430208 t⁻¹⁰),
-//
-// (DLMF 9.9.6 and 9.9.18; the t⁻⁶..t⁻¹⁰ coefficients from memory, checked
-// in the tests against the table at k = 6..10, where the truncation error
-// is already below 1e-13 relative). For k ≥ 11, t > 50 and the first
-// omitted term is below 1e-16 relative.
-func airyZero(k int) float64 {
-	if k <= len(airyZeros) {
-		return airyZeros[k-1]
-	}
-	return airyZeroAsymptotic(k)
-}
-
-func airyZeroAsymptotic(k int) float64 {
-	t := 3 * math.Pi * (4*float64(k) - 1) / 8
-	u := 1 / (t * t)
-	s := 1 + u*(5.0/48+u*(-5.0/36+u*(77125.0/82944+u*(-108056875.0/6967296+u*(162375596875.0/334430208)))))
-	return math.Pow(t, 2.0/3) * s
-}
-
-// levelFloor returns a rigorous lower bound on η_n at reduced field f ≥ 0:
-// the larger of
-//
-//	n² − f/2                       (f(ξ − ½) ≥ −f/2, min–max),
-//	−f/2 + |a_n| (f/π)^(2/3)       (the triangular well on the half-line:
-//	                                extending the domain to [0, ∞) with the
-//	                                same potential lowers every Dirichlet
-//	                                level, min–max on H¹₀(0,1) ⊂ H¹₀(0,∞)),
-//
-// shaded down by a few units in the last place so that rounding cannot lift
-// it above the true floor.
-func levelFloor(n int, f float64) float64 {
-	nn := float64(n)
-	lo := nn*nn - f/2
-	if f > 0 {
-		tri := -f/2 + airyZero(n)*math.Pow(f/math.Pi, 2.0/3)
-		lo = math.Max(lo, tri)
-	}
-	return lo - 8*eps*(math.Abs(lo)+f)
-}
-
 const eps = 0x1p-52
 
 // templeLower returns Temple's lower bound E − σ²/(α − E) on the level

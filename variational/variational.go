@@ -2,6 +2,7 @@ package variational
 
 import (
 	"fmt"
+	"github.com/tiltwell/tiltwell/internal/floor"
 	"math"
 	"strconv"
 
@@ -296,17 +297,17 @@ func (s Solver) brackets(sp *space, dst []Bracket, f float64, k int, warm []Brac
 	for n := 1; n <= k; n++ {
 		dst = append(dst, Bracket{})
 	}
-	alphaRig := levelFloor(k+1, af)
+	alphaRig := floor.Level(af, k+1)
 	alphaEst := alphaRig
 	for n := k; n >= 1; n-- {
 		r := res[n-1]
-		floor := levelFloor(n, af)
+		fl := floor.Level(af, n)
 		b := Bracket{N: n, Upper: r.upper, Tilt: sign * r.beta}
-		b.Lower, b.Bound = lowerBound(r.eLo, r.eHi, r.s2, floor, alphaRig, math.Max(alphaEst, r.nextLo))
+		b.Lower, b.Bound = lowerBound(r.eLo, r.eHi, r.s2, fl, alphaRig, math.Max(alphaEst, r.nextLo))
 		dst[n-1] = b
-		alphaRig, alphaEst = floor, math.Max(floor, b.Lower)
+		alphaRig, alphaEst = fl, math.Max(fl, b.Lower)
 		if b.Bound == tiltwell.Rigorous {
-			alphaRig = math.Max(floor, b.Lower)
+			alphaRig = math.Max(fl, b.Lower)
 		}
 	}
 	return dst, nil
@@ -333,8 +334,8 @@ func (sp *space) tiltBracket(f, guess float64) Bracket {
 	e, s2 := tiltVariance(beta, f)
 	ro := roundoff(polyShape, e, f, 1)
 	br := Bracket{N: 1, Upper: e + ro, Tilt: beta}
-	alpha := levelFloor(2, f)
-	br.Lower, br.Bound = lowerBound(e-ro, e+ro, s2, levelFloor(1, f), alpha, alpha)
+	alpha := floor.Level(f, 2)
+	br.Lower, br.Bound = lowerBound(e-ro, e+ro, s2, floor.Level(f, 1), alpha, alpha)
 	return br
 }
 

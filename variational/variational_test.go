@@ -132,47 +132,6 @@ func TestTempleCheckValue(t *testing.T) {
 	}
 }
 
-// TestAiryZeros checks the asymptotic expansion used for a_k beyond the
-// DLMF table (DLMF 9.9.6, 9.9.18) against the table itself (check-values
-// §1b) at k = 6..10, and against the exact package's zeros beyond.
-func TestAiryZeros(t *testing.T) {
-	t.Parallel()
-	for k := 6; k <= 10; k++ {
-		// Truncation error of the expansion, from the first omitted term's
-		// size: below 1e-12 relative at k = 6 and falling as k^(−14/3).
-		tol := 1e-12 * math.Pow(6/float64(k), 14.0/3)
-		if got := airyZeroAsymptotic(k); !scalar.EqualWithinRel(got, airyZeros[k-1], tol) {
-			t.Errorf("k=%d: asymptotic %.17g, table %.17g", k, got, airyZeros[k-1])
-		}
-	}
-	for k := 11; k <= MaxLevels+1; k++ {
-		want, err := exact.AiZero(k)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if got := airyZero(k); !scalar.EqualWithinRel(got, math.Abs(want), 4e-16) {
-			t.Errorf("k=%d: |a_k| = %.17g, exact.AiZero %.17g", k, got, want)
-		}
-	}
-}
-
-// TestLevelFloor checks that the floor used for α is below every exact
-// level (it is a theorem; this guards the code and the Airy zeros).
-func TestLevelFloor(t *testing.T) {
-	t.Parallel()
-	for _, f := range append(append([]float64(nil), denseFields...), strongFields...) {
-		ex, err := exact.Solver{}.Levels(nil, f, MaxLevels+1)
-		if err != nil {
-			t.Fatal(err)
-		}
-		for _, l := range ex {
-			if fl := levelFloor(l.N, f); fl > l.Energy {
-				t.Errorf("f=%g n=%d: floor %.17g above η = %.17g", f, l.N, fl, l.Energy)
-			}
-		}
-	}
-}
-
 // TestGaussBound checks the quadrature error bound on an integrand with a
 // known integral: ∫₀¹ e^(−2βξ) dξ = (1 − e^(−2β))/(2β), analytic with
 // |e^(−2βz)| ≤ e^(β(a−1)) on the ellipse image (common practice, no source
