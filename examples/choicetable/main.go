@@ -24,24 +24,17 @@ import (
 	"time"
 
 	"github.com/tiltwell/tiltwell"
-	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
-	"github.com/tiltwell/tiltwell/perturb"
-	"github.com/tiltwell/tiltwell/variational"
-	"github.com/tiltwell/tiltwell/wkb"
+	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
 // candidates are the methods in the tables, cheapest first.
 func candidates() []tiltwell.Candidate {
-	return []tiltwell.Candidate{
-		{Name: "perturb1", Solver: perturb.Solver{Order: 1}},
-		{Name: "perturb2", Solver: perturb.Solver{Order: 2}},
-		{Name: "wkb-plain", Solver: wkb.Solver{Plain: true}},
-		{Name: "wkb", Solver: wkb.Solver{}},
-		{Name: "variational", Solver: variational.Solver{}},
-		{Name: "basis", Solver: basis.Solver{}},
-		{Name: "exact", Solver: exact.Solver{}},
+	var cs []tiltwell.Candidate
+	for _, m := range catalog.All() {
+		cs = append(cs, tiltwell.Candidate{Name: m.Name, Solver: m.Solver})
 	}
+	return cs
 }
 
 // ranges are the largest |f| of each column.

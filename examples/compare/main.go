@@ -28,11 +28,8 @@ import (
 	"time"
 
 	"github.com/tiltwell/tiltwell"
-	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
-	"github.com/tiltwell/tiltwell/perturb"
-	"github.com/tiltwell/tiltwell/variational"
-	"github.com/tiltwell/tiltwell/wkb"
+	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
 // method is one entry of the comparison.
@@ -43,15 +40,11 @@ type method struct {
 
 // methods are the methods compared, cheapest first.
 func methods() []method {
-	return []method{
-		{"perturb1", perturb.Solver{Order: 1}},
-		{"perturb2", perturb.Solver{Order: 2}},
-		{"wkb-plain", wkb.Solver{Plain: true}},
-		{"wkb", wkb.Solver{}},
-		{"variational", variational.Solver{}},
-		{"basis", basis.Solver{}},
-		{"exact", exact.Solver{}},
+	var ms []method
+	for _, m := range catalog.All() {
+		ms = append(ms, method{m.Name, m.Solver})
 	}
+	return ms
 }
 
 // Demo well (invented): 20 nm, GaAs-like electron mass.

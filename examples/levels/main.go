@@ -8,7 +8,7 @@
 //
 // Flags:
 //
-//	-method NAME    exact, perturb1, perturb2, variational, wkb or basis (default exact)
+//	-method NAME    exact, perturb1, perturb2, variational, wkb, wkb-plain or basis (default exact)
 //	-f LIST         comma-separated reduced fields f = F/F₀ (default 0,1,3,10)
 //	-n K            number of levels per field (default 5)
 //	-basis-size N   sine states for -method basis (0: the package default)
@@ -34,10 +34,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/basis"
-	"github.com/tiltwell/tiltwell/exact"
-	"github.com/tiltwell/tiltwell/perturb"
-	"github.com/tiltwell/tiltwell/variational"
-	"github.com/tiltwell/tiltwell/wkb"
+	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
 // options are the parsed flags.
@@ -62,21 +59,26 @@ func main() {
 	os.Exit(code)
 }
 
-// solvers maps each method name to a constructor.
-var solvers = map[string]func(o options) (tiltwell.Solver, error){
-	"exact":    func(options) (tiltwell.Solver, error) { return exact.Solver{}, nil },
-	"perturb1": func(options) (tiltwell.Solver, error) { return perturb.Solver{Order: 1}, nil },
-	"perturb2": func(options) (tiltwell.Solver, error) { return perturb.Solver{Order: 2}, nil },
-	"variational": func(options) (tiltwell.Solver, error) {
-		return variational.Solver{}, nil
-	},
-	"wkb": func(o options) (tiltwell.Solver, error) { return wkb.Solver{Plain: o.wkbPlain}, nil },
-	"basis": func(o options) (tiltwell.Solver, error) {
+// solver returns the solver the options ask for: the catalogue's default
+// settings, with -basis-size and -wkb-plain applied (the latter renames the
+// method wkb-plain in the output).
+func solver(o *options) (tiltwell.Solver, error) {
+	name := o.method
+	if o.wkbPlain {
+		name = "wkb-plain"
+		o.method = name
+	}
+	m, ok := catalog.Lookup(name)
+	if !ok {
+		return nil, usageError{fmt.Sprintf("unknown method %q (want one of %s)", o.method, catalog.Names())}
+	}
+	if name == "basis" {
 		if o.basisSize < 0 {
 			return nil, usageError{fmt.Sprintf("-basis-size %d: must be 0 (default) or positive", o.basisSize)}
 		}
 		return basis.Solver{Size: o.basisSize}, nil
-	},
+	}
+	return m.Solver, nil
 }
 
 func parse(args []string) (options, error) {
@@ -98,8 +100,8 @@ func parse(args []string) (options, error) {
 	if o.wkbPlain && o.method != "wkb" {
 		return o, usageError{"-wkb-plain goes with -method wkb"}
 	}
-	if _, ok := solvers[o.method]; !ok {
-		return o, usageError{fmt.Sprintf("unknown method %q (want one of %s)", o.method, methodNames())}
+	if o.basisSize != 0 && o.method != "basis" {
+		return o, usageError{"-basis-size goes with -method basis"}
 	}
 	if o.n < 1 {
 		return o, usageError{fmt.Sprintf("-n %d: need at least 1 level", o.n)}
@@ -114,24 +116,13 @@ func parse(args []string) (options, error) {
 	return o, nil
 }
 
-func methodNames() string {
-	names := []string{"exact", "perturb1", "perturb2", "variational", "wkb", "basis"}
-	var have []string
-	for _, n := range names {
-		if _, ok := solvers[n]; ok {
-			have = append(have, n)
-		}
-	}
-	return strings.Join(have, ", ")
-}
-
 // run executes the command and returns the exit status.
 func run(args []string, out io.Writer) (int, error) {
 	o, err := parse(args)
 	if err != nil {
 		return 2, err
 	}
-	s, err := solvers[o.method](o)
+	s, err := solver(&o)
 	if err != nil {
 		return 2, err
 	}

@@ -59,6 +59,7 @@ func TestBadInput(t *testing.T) {
 		{"-method", "basis", "-basis-size", "-3"},
 		{"-method", "basis", "-basis-size", "2", "-n", "5"},
 		{"-wkb-plain"},
+		{"-method", "exact", "-basis-size", "10"},
 		{"extra"},
 	} {
 		var out strings.Builder

@@ -13,7 +13,7 @@
 //
 // Usage:
 //
-//	go run ./examples/modulator [-method exact|basis|perturb|variational|wkb] [-kv 0,20,...]
+//	go run ./examples/modulator [-method exact|perturb2|wkb|variational|basis|…] [-kv 0,20,...]
 package main
 
 import (
@@ -27,33 +27,22 @@ import (
 	"text/tabwriter"
 
 	"github.com/tiltwell/tiltwell"
-	"github.com/tiltwell/tiltwell/basis"
-	"github.com/tiltwell/tiltwell/exact"
-	"github.com/tiltwell/tiltwell/perturb"
-	"github.com/tiltwell/tiltwell/variational"
-	"github.com/tiltwell/tiltwell/wkb"
+	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
 // demoPair is the invented demo device: a 10 nm well with GaAs masses.
 var demoPair = tiltwell.Pair{Width: 10e-9, Electron: 0.067, Hole: 0.3497}
 
-var solvers = map[string]tiltwell.WaveSolver{
-	"exact":       exact.Solver{},
-	"basis":       basis.Solver{},
-	"perturb":     perturb.Solver{Order: 2},
-	"variational": variational.Solver{},
-	"wkb":         wkb.Solver{},
-}
-
 func main() {
-	name := flag.String("method", "exact", "solver: exact, basis, perturb, variational or wkb")
+	name := flag.String("method", "exact", "method: "+catalog.Names())
 	kvs := flag.String("kv", "0,20,40,60,80,100,120,140,160,180,200", "comma-separated fields in kV/cm")
 	flag.Parse()
-	s, ok := solvers[*name]
+	m, ok := catalog.Lookup(*name)
 	if !ok {
-		fmt.Fprintf(os.Stderr, "modulator: unknown -method %q (exact, basis, perturb, variational or wkb)\n", *name)
+		fmt.Fprintf(os.Stderr, "modulator: unknown -method %q (want one of %s)\n", *name, catalog.Names())
 		os.Exit(2)
 	}
+	s := m.Solver
 	var fields []float64
 	for _, p := range strings.Split(*kvs, ",") {
 		kv, err := strconv.ParseFloat(strings.TrimSpace(p), 64)

@@ -27,11 +27,8 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 
 	"github.com/tiltwell/tiltwell"
-	"github.com/tiltwell/tiltwell/basis"
 	"github.com/tiltwell/tiltwell/exact"
-	"github.com/tiltwell/tiltwell/perturb"
-	"github.com/tiltwell/tiltwell/variational"
-	"github.com/tiltwell/tiltwell/wkb"
+	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
 // method is one curve family of the picture.
@@ -41,15 +38,27 @@ type method struct {
 	color color.Color
 }
 
+// colors picks the methods drawn (the plain WKB rule is left out: its
+// jump would swamp the picture) and their colours.
+var colors = map[string]color.Color{
+	"exact":       color.RGBA{A: 255},
+	"perturb1":    color.RGBA{R: 0xd6, G: 0x27, B: 0x28, A: 255},
+	"perturb2":    color.RGBA{R: 0xff, G: 0x7f, B: 0x0e, A: 255},
+	"wkb":         color.RGBA{R: 0x2c, G: 0xa0, B: 0x2c, A: 255},
+	"variational": color.RGBA{R: 0x94, G: 0x67, B: 0xbd, A: 255},
+	"basis":       color.RGBA{R: 0x1f, G: 0x77, B: 0xb4, A: 255},
+}
+
+// methods returns the methods drawn, the exact reference first.
 func methods() []method {
-	return []method{
-		{"exact", exact.Solver{}, color.RGBA{A: 255}},
-		{"perturb1", perturb.Solver{Order: 1}, color.RGBA{R: 0xd6, G: 0x27, B: 0x28, A: 255}},
-		{"perturb2", perturb.Solver{Order: 2}, color.RGBA{R: 0xff, G: 0x7f, B: 0x0e, A: 255}},
-		{"wkb", wkb.Solver{}, color.RGBA{R: 0x2c, G: 0xa0, B: 0x2c, A: 255}},
-		{"variational", variational.Solver{}, color.RGBA{R: 0x94, G: 0x67, B: 0xbd, A: 255}},
-		{"basis", basis.Solver{}, color.RGBA{R: 0x1f, G: 0x77, B: 0xb4, A: 255}},
+	ex, _ := catalog.Lookup("exact")
+	ms := []method{{ex.Name, ex.Solver, colors[ex.Name]}}
+	for _, m := range catalog.All() {
+		if c, ok := colors[m.Name]; ok && m.Name != "exact" {
+			ms = append(ms, method{m.Name, m.Solver, c})
+		}
 	}
+	return ms
 }
 
 // errFloor is where zero errors are drawn on the log axis: below float64

@@ -1,0 +1,56 @@
+// Package catalog is the one list of tiltwell's methods that the example
+// programs share, under the names examples/levels documents: adding a
+// method to the library means adding it here once.
+package catalog
+
+import (
+	"strings"
+
+	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/basis"
+	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/variational"
+	"github.com/tiltwell/tiltwell/wkb"
+)
+
+// Method is one method of the library with its default settings.
+type Method struct {
+	// Name is the method's name in the examples' flags and tables.
+	Name string
+	// Solver computes the levels.
+	Solver tiltwell.WaveSolver
+}
+
+// All returns every method with its default settings, roughly cheapest
+// first, the exact reference last.
+func All() []Method {
+	return []Method{
+		{"perturb1", perturb.Solver{Order: 1}},
+		{"perturb2", perturb.Solver{Order: 2}},
+		{"wkb-plain", wkb.Solver{Plain: true}},
+		{"wkb", wkb.Solver{}},
+		{"variational", variational.Solver{}},
+		{"basis", basis.Solver{}},
+		{"exact", exact.Solver{}},
+	}
+}
+
+// Lookup returns the method called name and whether there is one.
+func Lookup(name string) (Method, bool) {
+	for _, m := range All() {
+		if m.Name == name {
+			return m, true
+		}
+	}
+	return Method{}, false
+}
+
+// Names returns the names of all methods, comma-separated, for messages.
+func Names() string {
+	var s []string
+	for _, m := range All() {
+		s = append(s, m.Name)
+	}
+	return strings.Join(s, ", ")
+}
