@@ -54,20 +54,31 @@ const airyPreferred = 110
 // for |f| > [MaxField], [tiltwell.ErrNoConvergence] if the root search fails
 // (not seen in the tests).
 func Level(f float64, n int, prec uint) (*big.Float, error) {
-	if err := tiltwell.CheckArgs("bigairy", f, n, MaxLevel, MaxField); err != nil {
-		return nil, err
-	}
-	if prec == 0 {
-		prec = DefaultPrec
-	}
-	af, _ := tiltwell.Fold(f)
-	if af == 0 {
-		return fint(int64(n)*int64(n), prec), nil
+	af, prec, zero, err := levelArgs(f, n, prec)
+	if zero != nil || err != nil {
+		return zero, err
 	}
 	if airyReach(af, n) <= airyPreferred {
 		return levelAiry(af, n, prec)
 	}
 	return levelShoot(af, n, prec)
+}
+
+// levelArgs checks the arguments shared by [Level], [LevelAiry] and
+// [LevelShoot] and applies the common special cases: it returns |f|, the
+// precision (DefaultPrec for 0), and the answer n² itself at f = 0.
+func levelArgs(f float64, n int, prec uint) (af float64, p uint, zero *big.Float, err error) {
+	if err := tiltwell.CheckArgs("bigairy", f, n, MaxLevel, MaxField); err != nil {
+		return 0, 0, nil, err
+	}
+	if prec == 0 {
+		prec = DefaultPrec
+	}
+	af, _ = tiltwell.Fold(f)
+	if af == 0 {
+		return 0, prec, fint(int64(n)*int64(n), prec), nil
+	}
+	return af, prec, nil, nil
 }
 
 // airyReach returns the largest |z₀|, |z₁| over the search interval
@@ -99,15 +110,9 @@ func airyReach(f float64, n int) float64 {
 //
 // Special cases are as for [Level].
 func LevelAiry(f float64, n int, prec uint) (*big.Float, error) {
-	if err := tiltwell.CheckArgs("bigairy", f, n, MaxLevel, MaxField); err != nil {
-		return nil, err
-	}
-	if prec == 0 {
-		prec = DefaultPrec
-	}
-	af, _ := tiltwell.Fold(f)
-	if af == 0 {
-		return fint(int64(n)*int64(n), prec), nil
+	af, prec, zero, err := levelArgs(f, n, prec)
+	if zero != nil || err != nil {
+		return zero, err
 	}
 	if r := airyReach(af, n); r > MaxAiryArg {
 		return nil, fmt.Errorf("bigairy: Airy arguments up to %.4g at f = %g, n = %d, beyond %d: %w", r, f, n, MaxAiryArg, tiltwell.ErrOutOfRange)
@@ -132,15 +137,9 @@ func LevelAiry(f float64, n int, prec uint) (*big.Float, error) {
 //
 // Special cases are as for [Level].
 func LevelShoot(f float64, n int, prec uint) (*big.Float, error) {
-	if err := tiltwell.CheckArgs("bigairy", f, n, MaxLevel, MaxField); err != nil {
-		return nil, err
-	}
-	if prec == 0 {
-		prec = DefaultPrec
-	}
-	af, _ := tiltwell.Fold(f)
-	if af == 0 {
-		return fint(int64(n)*int64(n), prec), nil
+	af, prec, zero, err := levelArgs(f, n, prec)
+	if zero != nil || err != nil {
+		return zero, err
 	}
 	return levelShoot(af, n, prec)
 }
