@@ -134,8 +134,15 @@ func Choose(candidates []Candidate, tol float64, fields []float64, k int) (Choic
 
 // try runs one candidate over the fields: one pass to collect its error
 // estimates, then timed passes until timeBudget has elapsed.
-func try(c Candidate, tol float64, fields []float64, k int, dst []Level) Trial {
-	tr := Trial{Name: c.Name, Met: true}
+func try(c Candidate, tol float64, fields []float64, k int, dst []Level) (tr Trial) {
+	// A candidate that panics (a bug in it, or a typed nil Solver) is
+	// recorded as failed, like one that returns an error.
+	defer func() {
+		if r := recover(); r != nil {
+			tr = Trial{Name: c.Name, Err: fmt.Errorf("tiltwell: choose: candidate %q panicked: %v: %w", c.Name, r, ErrNoSolver)}
+		}
+	}()
+	tr = Trial{Name: c.Name, Met: true}
 	worst := -1.0
 	start := time.Now()
 	for _, f := range fields {

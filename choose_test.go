@@ -234,3 +234,35 @@ func TestChooseDoesNotMutate(t *testing.T) {
 		t.Errorf("fields changed to %v", got)
 	}
 }
+
+type panicky struct{}
+
+func (panicky) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	panic("broken candidate")
+}
+
+type nilSolver struct{ x *int }
+
+func (s *nilSolver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	_ = *s.x
+	return dst, nil
+}
+
+// TestChoosePanickingCandidate checks that a candidate that panics, or a
+// typed nil Solver, is recorded as failed instead of crashing Choose.
+func TestChoosePanickingCandidate(t *testing.T) {
+	var typedNil *nilSolver
+	good := tiltwell.Candidate{Name: "good", Solver: flatSolver{err: 1e-9}}
+	ch, err := tiltwell.Choose([]tiltwell.Candidate{{Name: "panics", Solver: panicky{}}, {Name: "typed-nil", Solver: typedNil}, good}, 1e-6, []float64{1}, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ch.Name != "good" {
+		t.Errorf("chose %q", ch.Name)
+	}
+	for _, tr := range ch.Trials[:2] {
+		if tr.Err == nil || tr.Met {
+			t.Errorf("%s: trial %+v, want a recorded failure", tr.Name, tr)
+		}
+	}
+}

@@ -51,7 +51,8 @@ func (e *RangeError) Unwrap() error { return ErrOutOfRange }
 
 // CheckArgs validates the arguments of [Solver.Levels] for a method named
 // method that supports levels 1..maxLevel and fields |f| ≤ maxField. A
-// maxLevel or maxField of 0 means no limit. The returned error is prefixed
+// maxLevel ≤ 0, or a maxField that is not a positive number (0, negative
+// or NaN), means no limit. The returned error is prefixed
 // with method and wraps [ErrField], [ErrLevel] or [ErrOutOfRange] (as a
 // [*RangeError]); it is nil if the arguments are acceptable.
 func CheckArgs(method string, f float64, k, maxLevel int, maxField float64) error {

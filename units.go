@@ -28,7 +28,9 @@ const (
 // Well is the physical scale of a well: its width and the effective mass of
 // the particle in it. It converts between reduced and physical units.
 //
-// The zero value is not usable; construct a Well with [NewWell].
+// The zero value is not usable; construct a Well with [NewWell], which
+// validates it. The conversion methods do not check their receiver: on a
+// Well that NewWell would refuse they return 0, ±Inf or NaN.
 type Well struct {
 	// Width is the well width L in metres.
 	Width float64
@@ -38,7 +40,8 @@ type Well struct {
 
 // NewWell returns the Well of width (metres) and effective mass (units of the
 // electron mass m₀). It returns an error wrapping [ErrUnits] if either is not
-// a finite positive number.
+// a finite positive number, or if together they put E₁ or F₀ outside the
+// float64 range. The width is in metres: a 10 nm well is 10e-9.
 func NewWell(width, mass float64) (Well, error) {
 	w := Well{Width: width, Mass: mass}
 	if err := w.validate(); err != nil {
@@ -54,6 +57,12 @@ func (w Well) validate() error {
 	if !(w.Mass > 0) || math.IsInf(w.Mass, 0) {
 		return fmt.Errorf("tiltwell: effective mass %v m₀: %w", w.Mass, ErrUnits)
 	}
+	// Widths and masses far outside any device (a width of 1e-200 m, say)
+	// overflow or underflow the scales; refuse them rather than convert
+	// every field to 0 or ∞.
+	if e, f0 := w.EnergyUnit(), w.FieldUnit(); !(e > 0) || math.IsInf(e, 0) || !(f0 > 0) || math.IsInf(f0, 0) {
+		return fmt.Errorf("tiltwell: width %v m and mass %v m₀ give E₁ = %v J, F₀ = %v V/m: %w", w.Width, w.Mass, e, f0, ErrUnits)
+	}
 	return nil
 }
 
@@ -61,7 +70,7 @@ func (w Well) validate() error {
 // well at zero field.
 func (w Well) EnergyUnit() float64 {
 	m := w.Mass * ElectronMass
-	hl := ReducedPlanck * math.Pi / w.Width // ħπ/L, kept O(1e-26) to avoid underflow in ħ²
+	hl := ReducedPlanck * math.Pi / w.Width // ħπ/L
 	return hl * hl / (2 * m)
 }
 

@@ -193,21 +193,25 @@ func phase(z float64) (theta, p float64) {
 // Airy returns the Airy functions Ai(z), Ai′(z), Bi(z) and Bi′(z) of a real
 // argument (DLMF §9.2).
 //
-// Accuracy: for −13 < z < 20 the values come from Taylor series about
-// table nodes computed at 256-bit precision and are accurate to a few units
-// in the last place of max(|Ai|, |Bi|) (so Ai near one of its zeros has an
-// absolute, not relative, error of that size). Beyond, the asymptotic
-// expansions DLMF 9.7.5–9.7.8 (z ≥ 20) and the modulus–phase forms DLMF
-// 9.8.20, 9.8.22 (z ≤ −13) are used; for large negative z the phase
-// (2/3)|z|^(3/2) is itself rounded, which limits Ai and Bi to an absolute
-// accuracy of about 1e-16·|z|^(3/2)·M(z) there.
+// Accuracy (tested against 300-bit sums): for −13 < z < 20 the values come
+// from Taylor series about table nodes computed at 256-bit precision and
+// are accurate to a few units in the last place of max(|Ai|, |Bi|) (so Ai
+// near one of its zeros has an absolute, not relative, error of that size).
+// For z ≥ 20 the asymptotic expansions DLMF 9.7.5–9.7.8 with a
+// double-double e^(±ζ) give each function to a few ulps of itself. For
+// z ≤ −13 the modulus–phase forms DLMF 9.8.20, 9.8.22 are used; there the
+// phase (2/3)|z|^(3/2) is itself rounded, which limits Ai and Bi to an
+// absolute accuracy of about 1e-16·|z|^(3/2)·M(z).
 //
 // Special cases are:
 //
 //	Airy(+Inf) = 0, 0, +Inf, +Inf
 //	Airy(−Inf) = 0, NaN, 0, NaN
 //	Airy(NaN)  = NaN, NaN, NaN, NaN
-//	Bi and Bi′ overflow to +Inf for z > 104 (use [AiryScaled]).
+//	Bi′ and Bi overflow to +Inf once they exceed the largest float64,
+//	  near z = 104.0 and 104.4 (use [AiryScaled] beyond)
+//	z < −1.6e205, where the phase (2/3)|z|^(3/2) overflows: NaN for all
+//	  four (their values are not determined by a float64 argument there)
 func Airy(z float64) (ai, aip, bi, bip float64) {
 	switch {
 	case math.IsNaN(z):
@@ -218,14 +222,11 @@ func Airy(z float64) (ai, aip, bi, bip float64) {
 	case math.IsInf(z, -1):
 		return 0, math.NaN(), 0, math.NaN()
 	case z >= posStart:
-		ai, aip, bi, bip, zeta := posScaled(z)
-		e := math.Exp(-zeta)
-		if zeta > 700 {
-			// e^ζ overflows; Bi and Bi′ are +Inf, Ai and Ai′ underflow
-			// gracefully through the product below.
-			return ai * e, aip * e, math.Inf(1), math.Inf(1)
-		}
-		return ai * e, aip * e, bi / e, bip / e
+		ai, aip, bi, bip, _ := posScaled(z)
+		// e^(−ζ) applied as two halves, so that Ai underflows and Bi
+		// overflows only when the values themselves do.
+		g := expNegHalfZeta(z)
+		return ai * g * g, aip * g * g, bi / g / g, bip / g / g
 	case z <= -negStart:
 		x := -z
 		m, th, mp := negMod(x)
@@ -243,7 +244,7 @@ func negMod(x float64) (m, theta, mp float64) {
 	w, tc, _ := negModPhase(x)
 	// π M² √x = w  ⇒  M = √(w/(π√x)).
 	m = math.Sqrt(w / (math.Pi * sx))
-	theta = math.Pi/4 + (2.0/3)*x*sx + tc
+	theta = math.Pi/4 + (2.0/3)*x*sx + tc // +Inf once x^(3/2) overflows
 	// dM/dx = M/2 · (w′/w − 1/(2x)); dM/dz = −dM/dx. negDW gives x·w′.
 	mp = -m / (2 * x) * (negDW(x)/w - 0.5)
 	return m, theta, mp
@@ -255,21 +256,37 @@ func negMod(x float64) (m, theta, mp float64) {
 //	e^ζ Ai(z), e^ζ Ai′(z), e^(−ζ) Bi(z), e^(−ζ) Bi′(z),   ζ = (2/3) z^(3/2)
 //
 // for z > 0 (DLMF 9.7.1), and the unscaled values for z ≤ 0. Accuracy as
-// for [Airy]. AiryScaled(NaN) returns NaNs; AiryScaled(+Inf) returns the
-// limits 0, −Inf, 0, +Inf of the leading terms... see the code; do not rely
-// on infinite arguments.
+// for [Airy]; ζ is formed in double-double so that its rounding does not
+// enter the scale factor.
+//
+// Special cases are:
+//
+//	AiryScaled(+Inf) = 0, −Inf, 0, +Inf
+//	AiryScaled(−Inf) = 0, NaN, 0, NaN (as [Airy])
+//	AiryScaled(NaN)  = NaN, NaN, NaN, NaN
 func AiryScaled(z float64) (ai, aip, bi, bip float64) {
+	if math.IsInf(z, 1) {
+		return 0, math.Inf(-1), 0, math.Inf(1)
+	}
 	if z >= posStart {
 		ai, aip, bi, bip, _ = posScaled(z)
 		return ai, aip, bi, bip
 	}
 	ai, aip, bi, bip = Airy(z)
 	if z > 0 {
-		zeta := (2.0 / 3) * z * math.Sqrt(z)
-		e := math.Exp(zeta)
+		g := expNegHalfZeta(z)
+		e := 1 / (g * g) // e^ζ ≤ e^59.7, no overflow below posStart
 		return ai * e, aip * e, bi / e, bip / e
 	}
 	return ai, aip, bi, bip
+}
+
+// expNegHalfZeta returns e^(−ζ/2) for ζ = (2/3) z^(3/2), z > 0, with ζ
+// formed in double-double: e^(−ζ/2) = e^(−ζhi/2)(1 − ζlo/2), since the
+// rounding of ζ alone would cost ε·ζ relative (1e-13 at z = 100).
+func expNegHalfZeta(z float64) float64 {
+	zeta := ddMul(ddMulF(ddSqrt(dd{z, 0}), z), ddTwo3)
+	return math.Exp(-zeta.hi/2) * (1 - zeta.lo/2)
 }
 
 // ModulusPhase returns the modulus M(z) = √(Ai² + Bi²) and the continuous
@@ -295,9 +312,10 @@ func ModulusPhase(z float64) (m, theta float64) {
 		m, theta, _ = negMod(-z)
 		return m, theta
 	case z >= posStart:
-		ai, _, bi, _, zeta := posScaled(z)
-		r := ai / bi * math.Exp(-2*zeta)
-		return bi * math.Exp(zeta) * math.Sqrt(1+r*r), math.Atan(r)
+		ai, _, bi, _, _ := posScaled(z)
+		g := expNegHalfZeta(z)
+		r := ai / bi * (g * g) * (g * g) // Ai/Bi = (scaled ratio) e^(−2ζ)
+		return bi / g / g * math.Sqrt(1+r*r), math.Atan(r)
 	}
 	theta, m2 := tablePhase(z)
 	return math.Sqrt(m2), theta

@@ -3,7 +3,10 @@ package exact
 import (
 	"fmt"
 	"math"
+	"math/big"
 	"testing"
+
+	"github.com/tiltwell/tiltwell/exact/internal/bigairy"
 )
 
 // relErr returns |got − want| / scale.
@@ -314,5 +317,65 @@ func TestTaylorTruncation(t *testing.T) {
 				t.Errorf("node z=%g δ=%g: %d terms: c %g vs %g, d %g vs %g", s.z, d, s.nt, ct, cf, dt, df)
 			}
 		}
+	}
+}
+
+// TestAiryAgainstBig checks Ai, Ai′, Bi, Bi′ against the 300-bit Maclaurin
+// sums of internal/bigairy across all three evaluation ranges, each relative
+// to itself for z > 0 and relative to the modulus for z < 0, where the
+// functions oscillate. On the right the scale factor e^(±ζ) is formed from a
+// double-double ζ, so even z = 100 (ζ = 667) stays within a few ulps.
+func TestAiryAgainstBig(t *testing.T) {
+	t.Parallel()
+	for _, z := range []float64{-40, -13.1, -12.9, -7.3, -0.4, 0.7, 6.1, 19.9, 20.3, 30, 60, 100, 103.31} {
+		ai, aip, bi, bip := Airy(z)
+		rai, raip, rbi, rbip := bigairy.Airy(big.NewFloat(z), 300)
+		m, _ := ModulusPhase(z)
+		want := func(w *big.Float) float64 { f, _ := w.Float64(); return f }
+		// Left of zero the phase (2/3)|z|^(3/2) is rounded, worth ε·|z|^(3/2)
+		// of the modulus (see Airy).
+		tolNeg := 4 * eps * (1 + math.Pow(math.Max(-z, 0), 1.5))
+		for _, c := range []struct {
+			name      string
+			got, want float64
+			scale     float64
+		}{
+			{"Ai", ai, want(rai), m},
+			{"Bi", bi, want(rbi), m},
+			{"Ai′", aip, want(raip), math.Max(math.Abs(want(raip)), math.Abs(want(rbip)))},
+			{"Bi′", bip, want(rbip), math.Max(math.Abs(want(raip)), math.Abs(want(rbip)))},
+		} {
+			scale, tol := c.scale, tolNeg
+			if z > 0 {
+				scale, tol = math.Abs(c.want), 4*eps
+			}
+			if e := math.Abs(c.got-c.want) / scale; e > tol {
+				t.Errorf("%s(%g) = %.17g, 300-bit %.17g (rel %.2g > %.2g)", c.name, z, c.got, c.want, e, tol)
+			}
+		}
+	}
+}
+
+// TestAiryHugeArguments checks the documented behaviour where float64 runs
+// out: Bi overflows only once its value does, and far left the phase
+// overflows to +Inf while the modulus stays finite.
+func TestAiryHugeArguments(t *testing.T) {
+	t.Parallel()
+	if _, _, bi, _ := Airy(103.31); math.IsInf(bi, 0) {
+		t.Error("Bi(103.31) = +Inf; its value 1.87e303 is finite")
+	}
+	if _, _, bi, _ := Airy(104.5); !math.IsInf(bi, 1) {
+		t.Errorf("Bi(104.5) = %g, want +Inf", bi)
+	}
+	m, th := ModulusPhase(-1e300)
+	if !(m > 0) || !math.IsInf(th, 1) {
+		t.Errorf("ModulusPhase(−1e300) = %g, %g; want M > 0, θ = +Inf", m, th)
+	}
+	if ai, _, _, _ := Airy(-1e300); !math.IsNaN(ai) {
+		t.Errorf("Airy(−1e300) = %g; documented NaN", ai)
+	}
+	ai, aip, bi, bip := AiryScaled(math.Inf(-1))
+	if ai != 0 || bi != 0 || !math.IsNaN(aip) || !math.IsNaN(bip) {
+		t.Errorf("AiryScaled(−Inf) = %v %v %v %v", ai, aip, bi, bip)
 	}
 }

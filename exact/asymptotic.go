@@ -105,7 +105,11 @@ func negPoly(c *[nNeg]float64, y float64) float64 {
 func negModPhase(x float64) (w, θc, rr float64) {
 	y := 1 / (x * x * x)
 	w = 1 + negPoly(&negM, y)
-	θc = (2.0 / 3) * x * math.Sqrt(x) * negPoly(&negT, y)
+	if t := negPoly(&negT, y); t != 0 {
+		// t = 0 once x³ overflows (x > 5.6e102); skipping the product then
+		// keeps θc = 0 instead of ∞·0 when x^(3/2) overflows too.
+		θc = (2.0 / 3) * x * math.Sqrt(x) * t
+	}
 	rr = negPoly(&negR, y)
 	return w, θc, rr
 }

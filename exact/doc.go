@@ -9,8 +9,9 @@
 //
 // The package also exports the real-argument Airy functions it is built on
 // ([Airy], [AiryScaled], [ModulusPhase], [AiZero]), accurate to a few units
-// in the last place, from a node table computed at 256-bit precision (the
-// generator is internal/cmd/airygen; `go generate` rewrites airytable.go).
+// in the last place (relative to the modulus where they oscillate; see
+// [Airy]), from a node table computed at 256-bit precision (the generators
+// are internal/cmd/airygen and thetagen; `go generate` rewrites the tables).
 //
 // References:
 //   - NIST Digital Library of Mathematical Functions, chapter 9 (Airy and

@@ -27,7 +27,8 @@ import (
 //	10	1	0.06602629575509023	1.2490009027033011e-14
 //	10	2	4.181870005637617	1.0658141036401503e-13
 //
-// The first line must begin with "tiltwell-levels v1". Lines starting with
+// The first line must begin with "tiltwell-levels v1" followed by a colon,
+// a space or the end of the line. Lines starting with
 // '#' are comments, which make up [Table.Note]; blank lines are ignored.
 // Every other line has four fields separated by spaces or tabs: the
 // reduced field f, the level number n, the reduced energy η and the
@@ -155,7 +156,8 @@ func ReadTable(r io.Reader) (*Table, error) {
 		line++
 		text := strings.TrimSuffix(sc.Text(), "\r")
 		if line == 1 {
-			if !strings.HasPrefix(text, tableMagic) {
+			// The version must be exactly v1: "v10" is another format.
+			if rest, ok := strings.CutPrefix(text, tableMagic); !ok || (rest != "" && rest[0] != ':' && rest[0] != ' ') {
 				return nil, &TableError{Line: 1, Msg: fmt.Sprintf("does not begin with %q", tableMagic)}
 			}
 			continue

@@ -306,3 +306,15 @@ func FuzzReadTable(f *testing.F) {
 		}
 	})
 }
+
+// TestReadTableVersion checks that only version 1 is read.
+func TestReadTableVersion(t *testing.T) {
+	for _, head := range []string{"tiltwell-levels v10 future format", "tiltwell-levels v2", "tiltwell-levelsv1"} {
+		if _, err := exact.ReadTable(strings.NewReader(head + "\n0 1 1 0\n")); err == nil {
+			t.Errorf("header %q accepted", head)
+		}
+	}
+	if _, err := exact.ReadTable(strings.NewReader("tiltwell-levels v1\n0 1 1 0\n")); err != nil {
+		t.Errorf("bare v1 header refused: %v", err)
+	}
+}

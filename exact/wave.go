@@ -75,7 +75,8 @@ func phaseM2(z float64) (theta, m2 float64) {
 }
 
 // Wavefunction returns the normalized wavefunction of level n at reduced
-// field f, as a [*Wave]. It satisfies φ′(0) > 0 and has n − 1 nodes in
+// field f: a [*Wave] for f ≥ 0, and its mirror image ([tiltwell.Mirror]) for
+// f < 0. It satisfies φ′(0) > 0 and has n − 1 nodes in
 // (0, 1). Errors as for [Solver.Levels] with n in place of k.
 //
 // Special cases are:
@@ -180,7 +181,8 @@ func gsum(x0, x1 float64) float64 {
 // Gauss–Legendre quadrature of (ξ − ½)φ², which loses only the ratio of
 // ⟨|ξ − ½|⟩ to |⟨ξ − ½⟩|. Measured against a difference of 256-bit levels:
 // about 1e-16 relative at strong field and in the modulus–phase range,
-// 1e-13 to 3e-13 in the crossover (f ≈ 0.1–1 for the low levels).
+// 1e-13 to 3e-13 in the crossover (f ≈ 0.1–1 for the low levels); where
+// the dipole changes sign the absolute error, below 1e-15, is the measure.
 //
 // Special cases are:
 //
