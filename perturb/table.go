@@ -52,6 +52,7 @@ func buildBlock(i int) *block {
 		e.nn = float64(n) * float64(n)
 		e.c, _ = series(n)
 		e.c[0] = secondOrder(n) // the closed form; the recursion agrees to rounding
+		scaleHigh(&e.c, n)
 		gap := 2*float64(n) - 1
 		if n == 1 {
 			gap = 3
@@ -61,6 +62,39 @@ func buildBlock(i int) *block {
 		}
 	}
 	return b
+}
+
+// The closed-form recursion loses digits to cancellation as n grows: c₁₀
+// is wrong beyond n ≈ 150 and c₈ beyond n ≈ 250 (c₈n¹⁴ should settle at
+// 2.44e-6 and c₁₀n¹⁸ near 2.6e-7, but swing by orders of magnitude by
+// n = 500), while c₄ and c₆ stay accurate to 1000. Above reliableN[j] the
+// coefficient c_(2j+2) is therefore taken from its large-n law
+// c_(2j+2) ∝ n^(−(4j+2)) (the two-wall WKB scaling; c₄·2304n⁶ → 1),
+// anchored at reliableN[j] and enlarged by 5% for the slow 1/n² drift of
+// the normalised values (about 0.2% between n = 100 and 1000 for c₄ and
+// c₆). These coefficients only enter the error estimate and the validity
+// limit, for which a few per cent is ample; TestHighLevelEstimates checks
+// the estimate against the exact levels for n up to 1000.
+var reliableN = [nCoef]int{MaxLevels, MaxLevels, MaxLevels, 200, 100}
+
+// anchors holds c_j at reliableN for the extrapolated coefficients.
+var anchors = sync.OnceValue(func() (a [nCoef]float64) {
+	for j, n := range reliableN {
+		if n < MaxLevels {
+			c, _ := series(n)
+			a[j] = c[j]
+		}
+	}
+	return a
+})
+
+// scaleHigh replaces the unreliable high-order coefficients of level n.
+func scaleHigh(c *[nCoef]float64, n int) {
+	for j, nr := range reliableN {
+		if n > nr {
+			c[j] = 1.05 * anchors()[j] * math.Pow(float64(nr)/float64(n), float64(4*j+2))
+		}
+	}
 }
 
 // entryOf returns the entry of level n, 1 ≤ n ≤ MaxLevels.
