@@ -260,6 +260,14 @@ func (s Solver) Solve(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level,
 // the sign φ′(0) = √2π Σ m c_m > 0. It is evaluated in O(N) operations per
 // point with one sine and cosine call. Errors follow [Solver.Levels].
 //
+// At strong fields the tail of a level, where the exact wavefunction is
+// exponentially small (below about 1e-8 of its peak), is dominated by the
+// truncation of the expansion: there the computed φ can change sign
+// spuriously, so node counts and the sign of φ′ at a wall the level does
+// not reach are not meaningful. The sign convention φ′(0) > 0 is applied at
+// f ≥ 0, where the level lives near ξ = 0, and carried to f < 0 by mirror
+// symmetry.
+//
 // Special cases are:
 //
 //	f < 0, no potential: tiltwell.Mirror of the wavefunction at |f|

@@ -26,20 +26,20 @@ const (
 const maxDim = 40
 
 // ncoef is the length of a coefficient vector: sine orders 0..maxDim+1 or
-// powers of t = 2ξ−1 from 0 to maxDim+1 (the seed adds two).
+// powers of t = 2ξ−1 from 0 to maxDim+1 (the start adds two).
 const ncoef = maxDim + 3
 
-// rule is a Gauss–Legendre rule on [0, 1] with the seed and multiplier of
+// rule is a Gauss–Legendre rule on [0, 1] with the start and multiplier of
 // each shape tabulated at its nodes. Rules are built once and never
 // modified.
 type rule struct {
 	n    int
 	x, w []float64
 	sw   []float64 // √w
-	// seed[s] holds the seed function of shape s and its first two
+	// start[s] holds the start function of shape s and its first two
 	// derivatives, mult[s] the multiplier and its derivatives, each as
 	// three consecutive blocks of n values.
-	seed, mult [2][]float64
+	start, mult [2][]float64
 }
 
 // ruleSizes are the node counts of the tabulated rules, smallest first.
@@ -55,22 +55,22 @@ var rules = sync.OnceValue(func() []*rule {
 			r.sw[j] = math.Sqrt(w)
 		}
 		for s := range 2 {
-			r.seed[s] = make([]float64, 3*n)
+			r.start[s] = make([]float64, 3*n)
 			r.mult[s] = make([]float64, 3*n)
 		}
 		for j, x := range r.x {
 			sn, cs := math.Sincos(math.Pi * x)
-			// sineShape: seed sin(πξ), multiplier cos(πξ).
-			r.seed[sineShape][j] = sn
-			r.seed[sineShape][n+j] = math.Pi * cs
-			r.seed[sineShape][2*n+j] = -p2 * sn
+			// sineShape: start sin(πξ), multiplier cos(πξ).
+			r.start[sineShape][j] = sn
+			r.start[sineShape][n+j] = math.Pi * cs
+			r.start[sineShape][2*n+j] = -p2 * sn
 			r.mult[sineShape][j] = cs
 			r.mult[sineShape][n+j] = -math.Pi * sn
 			r.mult[sineShape][2*n+j] = -p2 * cs
-			// polyShape: seed ξ(1−ξ), multiplier 2ξ−1.
-			r.seed[polyShape][j] = x * (1 - x)
-			r.seed[polyShape][n+j] = 1 - 2*x
-			r.seed[polyShape][2*n+j] = -2
+			// polyShape: start ξ(1−ξ), multiplier 2ξ−1.
+			r.start[polyShape][j] = x * (1 - x)
+			r.start[polyShape][n+j] = 1 - 2*x
+			r.start[polyShape][2*n+j] = -2
 			r.mult[polyShape][j] = 2*x - 1
 			r.mult[polyShape][n+j] = 2
 		}
@@ -164,11 +164,11 @@ func (sp *space) build(r *rule, sh shape, dim int, beta, f float64, full bool) {
 	for i, x := range r.x {
 		env[i] = math.Exp(-beta * (x - xr))
 	}
-	seed := r.seed[sh]
+	start := r.start[sh]
 	b2 := beta * beta
 	v, d := sp.v[:n], sp.d[:n]
 	for i := range n {
-		e, s0, s1 := env[i], seed[i], seed[n+i]
+		e, s0, s1 := env[i], start[i], start[n+i]
 		v[i] = e * s0
 		d[i] = e * (s1 - beta*s0)
 	}
@@ -177,7 +177,7 @@ func (sp *space) build(r *rule, sh shape, dim int, beta, f float64, full bool) {
 	if full {
 		dd := sp.dd[:n]
 		for i := range n {
-			dd[i] = env[i] * (seed[2*n+i] - 2*beta*seed[n+i] + b2*seed[i])
+			dd[i] = env[i] * (start[2*n+i] - 2*beta*start[n+i] + b2*start[i])
 		}
 		c := sp.coef[:ncoef]
 		clear(c)

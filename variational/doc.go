@@ -70,7 +70,7 @@
 //
 // For Tilt, E and σ² are closed forms (see tiltEnergy and tiltVariance in
 // tilt.go, checked against quadrature in the tests). For Poly and Sine the
-// trial space is built numerically: a Krylov (Stieltjes) basis — the seed
+// trial space is built numerically: a Krylov (Stieltjes) basis — the starting function
 // times powers of cos πξ (Sine) or of 2ξ − 1 (Poly), times the envelope —
 // orthonormalized by Gram–Schmidt in a Gauss–Legendre inner product, with
 // H, the Gram matrix and the residual of the Ritz function integrated by

@@ -15,6 +15,14 @@ import (
 // safe for concurrent use; each call to At costs O(d²) for a space of
 // dimension d.
 //
+// At strong fields the tail of a level, where the exact wavefunction is
+// exponentially small (below about 1e-8 of its peak), is dominated by the
+// truncation of the expansion: there the computed φ can change sign
+// spuriously, so node counts and the sign of φ′ at a wall the level does
+// not reach are not meaningful. The sign convention φ′(0) > 0 is applied at
+// f ≥ 0, where the level lives near ξ = 0, and carried to f < 0 by mirror
+// symmetry.
+//
 // Special cases are:
 //
 //	f < 0: the mirror image of the level at |f|, see [tiltwell.Mirror]
@@ -91,32 +99,32 @@ func (w *ritzWave) At(xi float64) float64 {
 
 // eval returns φ(ξ), or φ′(0) if deriv0 (ξ is then ignored): every q_a
 // vanishes at 0, so q_a′(0) obeys the same recurrence started from the
-// seed's derivative.
+// starting function's derivative.
 func (w *ritzWave) eval(xi float64, deriv0 bool) float64 {
 	xr := 0.0
 	if w.beta < 0 {
 		xr = 1
 	}
-	var seed, m float64
+	var start, m float64
 	if deriv0 {
 		xi = 0
 	}
 	switch w.sh {
 	case sineShape:
 		sn, cs := math.Sincos(math.Pi * xi)
-		seed, m = sn, cs
+		start, m = sn, cs
 		if deriv0 {
-			seed = math.Pi
+			start = math.Pi
 		}
 	default:
-		seed, m = xi*(1-xi), 2*xi-1
+		start, m = xi*(1-xi), 2*xi-1
 		if deriv0 {
-			seed = 1
+			start = 1
 		}
 	}
 	var q [maxDim]float64
 	dim := w.dim
-	q[0] = math.Exp(-w.beta*(xi-xr)) * seed / w.rec[0]
+	q[0] = math.Exp(-w.beta*(xi-xr)) * start / w.rec[0]
 	phi := w.x[0] * q[0]
 	for j := 1; j < dim; j++ {
 		u := m * q[j-1]

@@ -46,6 +46,19 @@ type options struct {
 	wkbPlain  bool
 }
 
+// errHelp asks for the usage text: printed to stdout, exit status 0.
+var errHelp = errors.New("help requested")
+
+// usage is the text -h prints.
+const usage = `usage: levels [-method NAME] [-f LIST] [-n K] [-basis-size N] [-wkb-plain]
+  -method NAME    exact, perturb1, perturb2, variational, wkb, wkb-plain or basis (default exact)
+  -f LIST         comma-separated reduced fields f = F/F₀ (default 0,1,3,10)
+  -n K            number of levels per field (default 5)
+  -basis-size N   sine states for -method basis (0: the package default)
+  -wkb-plain      the plain WKB rules (same as -method wkb-plain)
+Output: tab-separated rows "method f n energy err bound".
+`
+
 // usageError is a bad flag or value: exit status 2.
 type usageError struct{ msg string }
 
@@ -92,6 +105,9 @@ func parse(args []string) (options, error) {
 	fs.IntVar(&o.basisSize, "basis-size", 0, "sine states for -method basis")
 	fs.BoolVar(&o.wkbPlain, "wkb-plain", false, "plain WKB rules")
 	if err := fs.Parse(args); err != nil {
+		if errors.Is(err, flag.ErrHelp) {
+			return o, errHelp
+		}
 		return o, usageError{err.Error()}
 	}
 	if fs.NArg() > 0 {
@@ -119,6 +135,10 @@ func parse(args []string) (options, error) {
 // run executes the command and returns the exit status.
 func run(args []string, out io.Writer) (int, error) {
 	o, err := parse(args)
+	if errors.Is(err, errHelp) {
+		_, err := io.WriteString(out, usage)
+		return 0, err
+	}
 	if err != nil {
 		return 2, err
 	}

@@ -79,3 +79,12 @@ func TestOutsideRange(t *testing.T) {
 		t.Errorf("exit %d, err %v, output %q", code, err, out.String())
 	}
 }
+
+// TestHelp checks that -h prints the flags and exits 0.
+func TestHelp(t *testing.T) {
+	var out strings.Builder
+	code, err := run([]string{"-h"}, &out)
+	if code != 0 || err != nil || !strings.Contains(out.String(), "-basis-size") {
+		t.Errorf("exit %d, err %v, output %q", code, err, out.String())
+	}
+}
