@@ -53,11 +53,16 @@ const eps = 0x1p-52 // float64 machine epsilon, 2.22e-16
 //	x₀^(3/2) − x₁^(3/2) = α (x₀ + √(x₀x₁) + x₁)/(√x₀ + √x₁),   x₀ − x₁ = α,
 //
 // which keeps full relative accuracy down to f = 1e-20; below that the
-// series n² + C_n f² is exact in float64.
+// series n² + C_n f² is exact in float64. The wall arguments (from one exact
+// product cη and a double-double α), the node phases and that leading
+// difference are carried in double-double, so a level near the middle of a
+// strongly tilted well (|η| ≪ f/2) keeps its relative accuracy too.
 //
 // Err is an estimate of the rounding error of the computed level, a few
-// units in the last place; it is tested against an independent 256-bit
-// reference.
+// units in the last place of max(1, |η|, f/2). Against an independent 256-bit
+// reference (f = 1e-8…1e4, n ≤ 50, and spot checks to n = 200,
+// |f| = 1e5) the worst error is 2.2e-16·max(1, |η|), Err never undershoots
+// it and is at most about 90 times it.
 type Solver struct{}
 
 var _ tiltwell.WaveSolver = Solver{}
