@@ -22,8 +22,12 @@ const (
 	polyShape
 )
 
-// maxDim is the largest Ritz space the package builds.
-const maxDim = 40
+// maxDim is the largest space the package builds: the verification space
+// of the lower bounds (see Solver.brackets).
+const maxDim = 48
+
+// maxRitzDim is the largest Ritz space of the searched upper bounds.
+const maxRitzDim = 40
 
 // ncoef is the length of a coefficient vector: sine orders 0..maxDim+1 or
 // powers of t = 2ξ−1 from 0 to maxDim+1 (the start adds two).

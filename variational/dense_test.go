@@ -105,6 +105,10 @@ func TestBracketsDense(t *testing.T) {
 				sh, limit = sineShape, 16
 			}
 			rawWorst := 0.0 // raw Ritz values below exact, in units
+			verWorst := 0.0 // the same for the verification space (Poly)
+			verFail := 0    // verification spaces that could not be built
+			sp := spacePool.Get().(*space)
+			defer spacePool.Put(sp)
 			for i, f := range fields {
 				ex, err := exact.Solver{}.Levels(nil, f, k)
 				if err != nil {
@@ -125,6 +129,18 @@ func TestBracketsDense(t *testing.T) {
 					raw := b.Upper - roundoff(sh, b.Upper, f, dim)
 					unit := float64(dim) * eps * (math.Abs(e.Energy) + f/2 + 1)
 					rawWorst = math.Max(rawWorst, (e.Energy-raw)/unit)
+					if fam == Poly {
+						// The verification space of the lower bounds:
+						// its raw Ritz value, measured the same way.
+						r := sp.verify(polyShape, maxDim, b.N, f, b.Tilt)
+						if !r.ok {
+							verFail++ // the package then keeps the searched space's bound
+						} else {
+							raw := (r.upper + r.eLo) / 2
+							unit := maxDim * eps * (math.Abs(e.Energy) + f/2 + 1)
+							verWorst = math.Max(verWorst, (e.Energy-raw)/unit)
+						}
+					}
 					if b.Bound == tiltwell.Rigorous {
 						nRig++
 					} else {
@@ -147,6 +163,15 @@ func TestBracketsDense(t *testing.T) {
 			// with a factor 2 to spare.
 			if rawWorst > limit/2 {
 				t.Errorf("raw Ritz values %.2f units below exact; the allowance is %g units", rawWorst, limit)
+			}
+			if fam == Poly {
+				// Its allowance is 8 units (roundoff for dim > maxRitzDim).
+				const verLimit = 8
+				t.Logf("poly: raw Ritz values of the %d-function verification space at most %.2f units below exact; %d not positive definite",
+					maxDim, verWorst, verFail)
+				if verWorst > verLimit/2 {
+					t.Errorf("verification space: raw Ritz values %.2f units below exact; the allowance is %d units", verWorst, verLimit)
+				}
 			}
 			// What the brackets achieve (measured on this grid; the limits
 			// hold the measured values with some room, so that a change
@@ -177,8 +202,8 @@ func TestBracketsDense(t *testing.T) {
 // pessimism holds, per family, the limits on the ratio of bracket width to
 // true error that TestBracketsDense enforces (measured values in comments).
 var pessimism = map[Family]struct{ rigMedian, rigMax, estMedian, estMax float64 }{
-	Poly: {3, 2e3, 3, 10},      // measured: 1.99, 1.06e3; 2.01, 4.37
-	Sine: {500, 1e4, 500, 1e3}, // measured: 354, 4.63e3; 410, 426
+	Poly: {3, 10, 3, 5},        // measured: 1.97, 6.05; 2.01, 2.36
+	Sine: {500, 5e3, 500, 1e3}, // measured: 360, 3.05e3; 410, 425
 	Tilt: {2, 25, 0, 0},        // measured: 1, 20.5; no estimates
 }
 
