@@ -6,7 +6,6 @@ import (
 	"math"
 	"strings"
 	"sync"
-	"testing"
 
 	"github.com/google/go-cmp/cmp"
 	"github.com/google/go-cmp/cmp/cmpopts"
@@ -199,27 +198,6 @@ func checkLimits(tol, maxRatio float64) error {
 		return fmt.Errorf("exact: check: MaxRatio %v: %w", maxRatio, tiltwell.ErrUnits)
 	}
 	return nil
-}
-
-// TestSolver runs [Check] inside a test and fails tb, with the report, if
-// the solver does not pass (see [Report.OK]) or Check cannot run. It
-// returns the report (nil if Check could not run) for further checks of
-// its own.
-//
-//	func TestAgainstExact(t *testing.T) {
-//		exact.TestSolver(t, mysolver.Solver{}, exact.Grid{Fields: []float64{0, 1, 10, 100}, Levels: 5})
-//	}
-func TestSolver(tb testing.TB, s tiltwell.Solver, g Grid) *Report {
-	tb.Helper()
-	r, err := Check(s, g)
-	if err != nil {
-		tb.Fatalf("exact.Check: %v", err)
-		return nil
-	}
-	if !r.OK() {
-		tb.Errorf("%s", r)
-	}
-	return r
 }
 
 // check compares s with the reference levels ref[i] at fields[i].

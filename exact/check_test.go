@@ -10,6 +10,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/exact/exacttest"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -371,16 +372,16 @@ func (r *recordTB) Fatalf(format string, args ...any) {
 func TestTestSolver(t *testing.T) {
 	t.Parallel()
 	var pass recordTB
-	if r := exact.TestSolver(&pass, sineBasis{size: 40, claim: 1e-8}, smallGrid); r == nil || len(pass.errors)+len(pass.fatals) != 0 {
+	if r := exacttest.TestSolver(&pass, sineBasis{size: 40, claim: 1e-8}, smallGrid); r == nil || len(pass.errors)+len(pass.fatals) != 0 {
 		t.Errorf("right solver failed the test: %q %q", pass.errors, pass.fatals)
 	}
 	var fail recordTB
-	exact.TestSolver(&fail, offset{d: 1e-6}, smallGrid)
+	exacttest.TestSolver(&fail, offset{d: 1e-6}, smallGrid)
 	if len(fail.errors) != 1 || !strings.Contains(fail.errors[0], "exact.Check of exact_test.offset") || !strings.Contains(fail.errors[0], "(-want +got)") {
 		t.Errorf("wrong solver: errors %q, want one carrying the report", fail.errors)
 	}
 	var bad recordTB
-	if r := exact.TestSolver(&bad, offset{}, exact.Grid{}); r != nil || len(bad.fatals) != 1 {
+	if r := exacttest.TestSolver(&bad, offset{}, exact.Grid{}); r != nil || len(bad.fatals) != 1 {
 		t.Errorf("empty grid: report %v, fatals %q; want nil and one fatal", r, bad.fatals)
 	}
 }

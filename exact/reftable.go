@@ -7,7 +7,6 @@ import (
 	"math"
 	"strconv"
 	"strings"
-	"testing"
 
 	"github.com/tiltwell/tiltwell"
 )
@@ -280,33 +279,4 @@ func (t *Table) Check(s tiltwell.Solver, tol float64) (*Report, error) {
 		return nil, err
 	}
 	return check(s, t.Fields, t.Levels, tol, 0), nil
-}
-
-// TestTable runs [Table.Check] inside a test and fails tb, with the report,
-// if the solver does not pass. It returns the report (nil if the check
-// could not run).
-//
-//	func TestRegression(t *testing.T) {
-//		f, err := os.Open("testdata/levels.txt")
-//		if err != nil {
-//			t.Fatal(err)
-//		}
-//		defer f.Close()
-//		tab, err := exact.ReadTable(f)
-//		if err != nil {
-//			t.Fatal(err)
-//		}
-//		exact.TestTable(t, mysolver.Solver{}, tab, 1e-9)
-//	}
-func TestTable(tb testing.TB, s tiltwell.Solver, t *Table, tol float64) *Report {
-	tb.Helper()
-	r, err := t.Check(s, tol)
-	if err != nil {
-		tb.Fatalf("exact: table check: %v", err)
-		return nil
-	}
-	if !r.OK() {
-		tb.Errorf("%s", r)
-	}
-	return r
 }

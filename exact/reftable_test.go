@@ -14,6 +14,7 @@ import (
 	"github.com/google/go-cmp/cmp"
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/exact/exacttest"
 )
 
 // updateTable rewrites testdata/levels.txt from the present solver:
@@ -74,7 +75,7 @@ func TestGoldenTable(t *testing.T) {
 	if tab.Note != goldenNote {
 		t.Errorf("note %q, want %q", tab.Note, goldenNote)
 	}
-	exact.TestTable(t, exact.Solver{}, tab, 0)
+	exacttest.TestTable(t, exact.Solver{}, tab, 0)
 
 	// check-values.md §3, "Exact values, computed here from
 	// Ai(x-)Bi(x+) - Ai(x+)Bi(x-) = 0 (mpmath)".
@@ -232,7 +233,7 @@ func TestTableCheck(t *testing.T) {
 		t.Errorf("offset solver: OK %v, %d undershoots of %d levels; want all %d to fail", r.OK(), r.Undershoots, r.Points, len(goldenFields)*goldenLevels)
 	}
 	var rec recordTB
-	exact.TestTable(&rec, offset{d: 1e-6}, tab, 0)
+	exacttest.TestTable(&rec, offset{d: 1e-6}, tab, 0)
 	if len(rec.errors) != 1 {
 		t.Errorf("TestTable of a wrong solver: %d errors, want 1", len(rec.errors))
 	}

@@ -9,6 +9,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/exact/exacttest"
 	"github.com/tiltwell/tiltwell/perturb"
 	"gonum.org/v1/gonum/integrate/quad"
 )
@@ -111,7 +112,7 @@ func TestContract(t *testing.T) {
 		fields = append(fields, 1e-8, -1e-300)
 		t.Run(fmt.Sprintf("order=%d", order), func(t *testing.T) {
 			t.Parallel()
-			r := exact.TestSolver(t, s, exact.Grid{Fields: fields, Levels: 12, MaxRatio: 10})
+			r := exacttest.TestSolver(t, s, exact.Grid{Fields: fields, Levels: 12, MaxRatio: 10})
 			if r != nil {
 				t.Logf("worst ratio %.4g at f=%g/n=%d; undershoots %d; worst |∫ψ²−1| %.2g; smallest overlap %.6f",
 					r.Ratio.Value, r.Ratio.F, r.Ratio.N, r.Undershoots, r.Waves.Norm.Value, r.Waves.Overlap.Value)

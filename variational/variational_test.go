@@ -8,6 +8,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/exact/exacttest"
 	"gonum.org/v1/gonum/floats/scalar"
 	"gonum.org/v1/gonum/integrate/quad"
 )
@@ -469,7 +470,7 @@ func TestCheck(t *testing.T) {
 	}{{Solver{}, 6}, {Solver{Family: Sine}, 3}, {Solver{Family: Tilt}, 1}} {
 		t.Run("family="+tc.s.Family.String(), func(t *testing.T) {
 			t.Parallel()
-			r := exact.TestSolver(t, tc.s, exact.Grid{Fields: []float64{0, 0.5, -3, 20, 150}, Levels: tc.k})
+			r := exacttest.TestSolver(t, tc.s, exact.Grid{Fields: []float64{0, 0.5, -3, 20, 150}, Levels: tc.k})
 			if r != nil {
 				t.Logf("abs error %.3g, worst ratio %.3g at f=%g n=%d", r.Abs.Value, r.Ratio.Value, r.Ratio.F, r.Ratio.N)
 			}

@@ -8,7 +8,7 @@
 //
 // In a test the same check is one line:
 //
-//	exact.TestSolver(t, fd{intervals: 4000, safety: 2}, exact.Grid{Fields: fields, Levels: 3, Tol: 1e-5})
+//	exacttest.TestSolver(t, fd{intervals: 4000, safety: 2}, exact.Grid{Fields: fields, Levels: 3, Tol: 1e-5})
 //
 // Usage:
 //

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/exact/exacttest"
 )
 
 // TestRun: the program's story holds: second-order convergence, a failing
@@ -26,5 +27,5 @@ func TestRun(t *testing.T) {
 // TestFD holds the finite-difference solver, with its safety factor, to
 // the contract and its own estimates, as a user's test would.
 func TestFD(t *testing.T) {
-	exact.TestSolver(t, fd{intervals: 400, safety: 2}, exact.Grid{Fields: []float64{0, 0.5, 3, 30, -8}, Levels: 4})
+	exacttest.TestSolver(t, fd{intervals: 400, safety: 2}, exact.Grid{Fields: []float64{0, 0.5, 3, 30, -8}, Levels: 4})
 }
