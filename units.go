@@ -96,3 +96,17 @@ func (w Well) MilliEV(eta float64) float64 {
 
 // KVPerCM converts a field in kV/cm, the unit device papers use, to V/m.
 func KVPerCM(kv float64) float64 { return kv * 1e5 }
+
+// EscapeTime returns the escape time τ = ħ/(Γ E₁) in seconds of a level
+// whose escape width is gamma = Γ in units of E₁ (see [Level.Gamma]): the
+// lifetime of a carrier in the level before it tunnels out. A bound state,
+// gamma = 0, never escapes: EscapeTime returns +Inf. For a negative or NaN
+// gamma it returns NaN.
+func (w Well) EscapeTime(gamma float64) float64 {
+	if !(gamma >= 0) {
+		return math.NaN()
+	}
+	// ħ/(Γ E₁) without forming Γ E₁, which underflows for the narrowest
+	// resonances (Γ ≈ 1e-300).
+	return ReducedPlanck / w.EnergyUnit() / gamma
+}

@@ -59,3 +59,28 @@ func TestNewWellBad(t *testing.T) {
 		}
 	}
 }
+
+// TestEscapeTime: τ = ħ/(Γ E₁); 1 meV of width is a lifetime of
+// ħ/(1 meV) = 6.582e-13 s (CODATA 2018: ħ = 6.582119569e-16 eV s).
+func TestEscapeTime(t *testing.T) {
+	t.Parallel()
+	w, err := tiltwell.NewWell(10e-9, 0.067)
+	if err != nil {
+		t.Fatal(err)
+	}
+	gamma := 1 / w.MilliEV(1) // Γ = 1 meV in E₁
+	if got, want := w.EscapeTime(gamma), 6.582119569e-13; math.Abs(got-want) > 1e-9*want {
+		t.Errorf("EscapeTime(1 meV) = %g s, want %g", got, want)
+	}
+	if got := w.EscapeTime(0); !math.IsInf(got, 1) {
+		t.Errorf("EscapeTime(0) = %g, want +Inf (a bound state)", got)
+	}
+	if got := w.EscapeTime(1e-300); math.IsInf(got, 0) || !(got > 1e280) {
+		t.Errorf("EscapeTime(1e-300) = %g, want finite and huge", got)
+	}
+	for _, g := range []float64{-1, math.NaN()} {
+		if got := w.EscapeTime(g); !math.IsNaN(got) {
+			t.Errorf("EscapeTime(%v) = %g, want NaN", g, got)
+		}
+	}
+}
