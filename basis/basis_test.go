@@ -225,12 +225,11 @@ func TestBracketsContainExact(t *testing.T) {
 						t.Logf("f=%g N=%d n=%d: estimate %.17g ± %.3g misses exact %.17g", f, N, j+1, l.Energy, l.Err, e)
 					}
 				}
-				// Pessimism, where the true error is above rounding: 1e-14
-				// of the scale, and 100 times the level's own rounding
-				// allowance (Solver doc), which is ~4Nu|θ|.
+				// Pessimism wherever the true error is above 1e-14, the
+				// floor of the tiltwell rules (an absolute one: at the
+				// rounding floor too).
 				trueErr := math.Abs(l.Energy - e)
-				floor := max(1e-14*max(1, math.Abs(e)), 100*float64(4*N+4)*unit*(math.Abs(e)+f+1))
-				if trueErr > floor {
+				if trueErr > 1e-14 {
 					rated++
 					if r := l.Err / trueErr; r > worst {
 						worst, worstAt = r, cells
