@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 	"testing"
 
 	"github.com/tiltwell/tiltwell"
@@ -334,6 +335,13 @@ func TestBadInput(t *testing.T) {
 		{"field", Solver{}, -2 * MaxField, 1, tiltwell.ErrOutOfRange},
 		{"sine field", Solver{Family: Sine}, 2 * SineMaxField, 1, tiltwell.ErrOutOfRange},
 		{"extra", Solver{Extra: -1}, 1, 1, tiltwell.ErrUnits},
+		// 2n + Extra overflowed and panicked in BLAS (common practice, no
+		// source: the tiltwell rules on bad input).
+		{"extra=MaxInt", Solver{Extra: math.MaxInt}, 1, 1, tiltwell.ErrUnits},
+		{"extra=MaxInt-1", Solver{Extra: math.MaxInt - 1}, 1, 3, tiltwell.ErrUnits},
+		{"extra=MinInt", Solver{Family: Sine, Extra: math.MinInt}, 1, 1, tiltwell.ErrUnits},
+		{"extra=MaxExtra+1", Solver{Extra: MaxExtra + 1}, 1, 1, tiltwell.ErrUnits},
+		{"tilt extra=MaxInt", Solver{Family: Tilt, Extra: math.MaxInt}, 1, 1, tiltwell.ErrUnits},
 		{"family", Solver{Family: Family(7)}, 1, 1, tiltwell.ErrUnits},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
@@ -353,7 +361,49 @@ func TestBadInput(t *testing.T) {
 			if _, err := tc.s.Sweep(nil, []float64{1, tc.f}, tc.k); !errors.Is(err, tc.want) {
 				t.Errorf("Sweep: error %v, want %v", err, tc.want)
 			}
+			if tc.s.Extra != 0 && (err == nil || !strings.Contains(err.Error(), fmt.Sprint(tc.s.Extra)) ||
+				!strings.Contains(err.Error(), fmt.Sprintf("0..%d", MaxExtra))) {
+				t.Errorf("error %q should name Extra = %d and the range 0..%d", err, tc.s.Extra, MaxExtra)
+			}
 		})
+	}
+}
+
+// TestBadWarm checks the starting tilts of Brackets: a NaN or infinite
+// one is an error wrapping ErrUnits for every family (the tilt family
+// returned [NaN, NaN] marked rigorous), and a huge finite one starts the
+// search at the end of its range and still gives a bracket that holds
+// the exact level (common practice, no source: the tiltwell rules on bad
+// input).
+func TestBadWarm(t *testing.T) {
+	t.Parallel()
+	for _, fam := range []Family{Poly, Sine, Tilt} {
+		s := Solver{Family: fam}
+		for _, tilt := range []float64{math.NaN(), math.Inf(1), math.Inf(-1)} {
+			br, err := s.Brackets(make([]Bracket, 2), 5, 1, []Bracket{{Tilt: tilt}})
+			if !errors.Is(err, tiltwell.ErrUnits) || len(br) != 0 {
+				t.Errorf("%v: warm tilt %v: %d brackets %v, error %v, want one wrapping ErrUnits", fam, tilt, len(br), br, err)
+			}
+			if err != nil && !strings.Contains(err.Error(), fmt.Sprint(tilt)) {
+				t.Errorf("%v: error %q does not name the tilt %v", fam, err, tilt)
+			}
+		}
+		ex, err := exact.Solver{}.Levels(nil, 5, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, tilt := range []float64{1e300, -1e300, math.MaxFloat64} {
+			br, err := s.Brackets(nil, 5, 1, []Bracket{{Tilt: tilt}})
+			if err != nil {
+				t.Fatalf("%v: warm tilt %g: %v", fam, tilt, err)
+			}
+			b := br[0]
+			tol := ex[0].Err + 1e-12
+			if math.IsNaN(b.Lower) || math.IsNaN(b.Upper) || math.IsNaN(b.Tilt) ||
+				!(b.Lower-tol <= ex[0].Energy && ex[0].Energy <= b.Upper+tol) {
+				t.Errorf("%v: warm tilt %g: bracket %+v, exact %.15g", fam, tilt, b, ex[0].Energy)
+			}
+		}
 	}
 }
 
@@ -459,23 +509,61 @@ func TestWarmStart(t *testing.T) {
 	}
 }
 
-// TestCheck runs the shared harness of the exact package: the Solver
-// contract (dst reuse, errors, mirror symmetry, concurrency, wavefunctions)
-// and every estimate held against the reference on a small grid.
+// TestCheck runs the shared harness of the exact package with the rules'
+// pessimism limit (exact.Grid.MaxRatio = 10: Err at most 10× the true
+// error wherever that is above 1e-14): the Solver contract (dst reuse,
+// errors, mirror symmetry, concurrency, wavefunctions) and every bracket
+// held against the reference, cold (Levels), for every family. The fields
+// include those where brackets used to be too wide: the tilt near f = 3
+// (20×), the sine family everywhere (up to 3e3×), and Poly's estimated
+// levels near f = 87 and 140 (up to 163×). Each Poly call costs tens of
+// milliseconds, so its twelve-level grid is short and a three-level grid
+// covers more fields; TestBracketsDense covers every level on 46 fields.
 func TestCheck(t *testing.T) {
 	t.Parallel()
+	var tilt []float64
+	for i := -16; i <= 16; i++ {
+		if i == 0 {
+			tilt = append(tilt, 0)
+			continue
+		}
+		f := math.Pow(10, float64(abs(i))/2-4) // 1e-3.5 … 1e4
+		if i < 0 {
+			f = -f * 0.73
+		}
+		tilt = append(tilt, f)
+	}
 	for _, tc := range []struct {
-		s Solver
-		k int
-	}{{Solver{}, 6}, {Solver{Family: Sine}, 3}, {Solver{Family: Tilt}, 1}} {
-		t.Run("family="+tc.s.Family.String(), func(t *testing.T) {
+		name   string
+		s      Solver
+		k      int
+		fields []float64
+	}{
+		{"poly/k=12", Solver{}, 12, []float64{-0.37, 86.76, -139.5}},
+		{"poly/k=3", Solver{}, 3, []float64{0, 1e-3, -0.02, 0.3, 3, -9.6, 23.7, 65, -310, 1000, 2500, 1e4}},
+		{"sine/k=12", Solver{Family: Sine}, 12, []float64{-3, 57}},
+		{"sine/k=3", Solver{Family: Sine}, 3, []float64{0, 0.02, 0.5, 8, -150, 1000}},
+		{"tilt", Solver{Family: Tilt}, 1, tilt},
+	} {
+		t.Run("family="+tc.name, func(t *testing.T) {
 			t.Parallel()
-			r := exacttest.TestSolver(t, tc.s, exact.Grid{Fields: []float64{0, 0.5, -3, 20, 150}, Levels: tc.k})
+			fields := tc.fields
+			if raceEnabled && tc.s.Family != Tilt {
+				fields = fields[:2] // twenty times slower under -race
+			}
+			r := exacttest.TestSolver(t, tc.s, exact.Grid{Fields: fields, Levels: tc.k, MaxRatio: 10})
 			if r != nil {
-				t.Logf("abs error %.3g, worst ratio %.3g at f=%g n=%d", r.Abs.Value, r.Ratio.Value, r.Ratio.F, r.Ratio.N)
+				t.Logf("abs error %.3g, worst Err/true error %.3g at f=%g n=%d", r.Abs.Value, r.Ratio.Value, r.Ratio.F, r.Ratio.N)
 			}
 		})
 	}
+}
+
+func abs(i int) int {
+	if i < 0 {
+		return -i
+	}
+	return i
 }
 
 // TestFamilyString checks the names.
@@ -488,32 +576,65 @@ func TestFamilyString(t *testing.T) {
 	}
 }
 
-// FuzzLevels checks that no field or level count makes Levels panic,
-// return NaN, or return an error that wraps no root sentinel.
+// FuzzLevels checks that no field, level count, Extra or starting tilt
+// makes Levels, Brackets, Sweep or Wavefunction panic, return a NaN or
+// infinite number, or return an error that wraps no root sentinel.
 func FuzzLevels(f *testing.F) {
 	for _, seed := range []struct {
-		f float64
-		k int
-	}{{0, 1}, {10, 3}, {-300, 5}, {1e4, 2}, {math.NaN(), 1}, {1, 0}, {1, 13}} {
-		f.Add(seed.f, seed.k, uint8(0))
+		f     float64
+		k     int
+		extra int
+		tilt  float64
+	}{{0, 1, 0, 0}, {10, 3, 0, 2}, {-300, 5, 4, -7}, {1e4, 2, 0, 0}, {math.NaN(), 1, 0, 0}, {1, 0, 0, 0}, {1, 13, 0, 0},
+		{1, 1, math.MaxInt, 0}, {1, 2, math.MaxInt - 1, 0}, {3, 1, -5, 0}, {3, 1, 0, math.NaN()}, {3, 2, 0, math.Inf(-1)}, {3, 1, 0, 1e300}} {
+		for fam := range uint8(3) {
+			f.Add(seed.f, seed.k, fam, seed.extra, seed.tilt)
+		}
 	}
-	f.Fuzz(func(t *testing.T, fld float64, k int, fam uint8) {
-		s := Solver{Family: Family(fam % 4)}
+	ok := func(t *testing.T, err error) {
+		for _, s := range []error{tiltwell.ErrField, tiltwell.ErrLevel, tiltwell.ErrOutOfRange, tiltwell.ErrUnits, tiltwell.ErrNoConvergence} {
+			if errors.Is(err, s) {
+				return
+			}
+		}
+		t.Fatalf("error %v wraps no root sentinel", err)
+	}
+	finite := func(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
+	f.Fuzz(func(t *testing.T, fld float64, k int, fam uint8, extra int, tilt float64) {
+		s := Solver{Family: Family(fam % 4), Extra: extra}
 		if k > 3 {
 			k = k%3 + 1 // keep each run cheap
 		}
 		ls, err := s.Levels(nil, fld, k)
 		if err != nil {
-			if !errors.Is(err, tiltwell.ErrField) && !errors.Is(err, tiltwell.ErrLevel) &&
-				!errors.Is(err, tiltwell.ErrOutOfRange) && !errors.Is(err, tiltwell.ErrUnits) &&
-				!errors.Is(err, tiltwell.ErrNoConvergence) {
-				t.Fatalf("error %v wraps no root sentinel", err)
-			}
+			ok(t, err)
 			return
 		}
 		for _, l := range ls {
-			if math.IsNaN(l.Energy) || math.IsNaN(l.Err) || l.Err < 0 {
+			if !finite(l.Energy) || !finite(l.Err) || l.Err < 0 {
 				t.Fatalf("f=%g: level %+v", fld, l)
+			}
+		}
+		br, err := s.Brackets(nil, fld, k, []Bracket{{Tilt: tilt}})
+		if err != nil {
+			ok(t, err)
+		}
+		for _, b := range br {
+			if !finite(b.Lower) || !finite(b.Upper) || !finite(b.Tilt) || b.Lower > b.Upper {
+				t.Fatalf("f=%g warm %g: bracket %+v", fld, tilt, b)
+			}
+		}
+		if _, err := s.Sweep(nil, []float64{fld, tilt}, 1); err != nil {
+			ok(t, err)
+		}
+		w, err := s.Wavefunction(fld, 1)
+		if err != nil {
+			ok(t, err)
+			return
+		}
+		for _, x := range []float64{tilt, 0.3, fld} {
+			if v := w.At(x); !finite(v) {
+				t.Fatalf("f=%g: φ(%g) = %v", fld, x, v)
 			}
 		}
 	})
