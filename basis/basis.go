@@ -332,10 +332,12 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 // wave is Σ c_m √2 sin(mπξ).
 type wave struct{ c []float64 }
 
-// At returns φ(ξ), 0 outside [0, 1]. sin(mπξ) comes from rotating
-// (cos πξ, sin πξ) m times, whose rounding grows only linearly in m.
+// At returns φ(ξ), 0 outside (0, 1) and exactly 0 on the walls, where
+// every sin(mπξ) vanishes but its float64 value (sin(π) = 1.2e-16) would
+// not. sin(mπξ) comes from rotating (cos πξ, sin πξ) m times, whose
+// rounding grows only linearly in m.
 func (w wave) At(xi float64) float64 {
-	if !(xi >= 0 && xi <= 1) {
+	if !(xi > 0 && xi < 1) {
 		return 0
 	}
 	s1, c1 := math.Sincos(math.Pi * xi)
