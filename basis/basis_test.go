@@ -253,7 +253,8 @@ func TestBracketsContainExact(t *testing.T) {
 }
 
 // Zero field: θ_k = k² exactly (no coupling), Err only the rounding
-// allowance. Fact of the trade (DESIGN.md, φ_n = √2 sin nπξ).
+// allowance. Fact of the trade (φ_n = √2 sin nπξ; common practice, no
+// source).
 func TestZeroField(t *testing.T) {
 	t.Parallel()
 	for _, N := range []int{1, 7, 64} {
@@ -271,7 +272,8 @@ func TestZeroField(t *testing.T) {
 	}
 }
 
-// Mirror symmetry (DESIGN.md): η_n(−f) = η_n(f), φ_n(ξ; −f) = ±φ_n(1 − ξ; f)
+// Mirror symmetry (ξ → 1 − ξ maps the field to its opposite; common
+// practice, no source): η_n(−f) = η_n(f), φ_n(ξ; −f) = ±φ_n(1 − ξ; f)
 // with the sign making φ′(0) > 0.
 func TestMirror(t *testing.T) {
 	t.Parallel()
@@ -786,7 +788,7 @@ func TestTinyFields(t *testing.T) {
 // range to MaxField (f = 1e3..1e5, every level of N = 10..320), where the
 // top of a small basis is far from converged: rigorous brackets must still
 // contain the exact value, and estimates may miss on at most 1% of the
-// cells (DESIGN.md's rule for estimates). A cross-check against the exact
+// cells (the tiltwell rule for estimates). A cross-check against the exact
 // reference, no published source.
 func TestStrongFieldEstimates(t *testing.T) {
 	t.Parallel()

@@ -164,7 +164,7 @@ func TestDipoleAgainstExact(t *testing.T) {
 }
 
 // TestHellmannFeynman checks that the dipole is dη/df of the second-order
-// energy (Hellmann–Feynman; DESIGN.md "Facts the code relies on"), by a
+// energy (Hellmann–Feynman; common practice, no source), by a
 // central difference, exact for a quadratic up to rounding.
 func TestHellmannFeynman(t *testing.T) {
 	t.Parallel()
@@ -185,8 +185,8 @@ func TestHellmannFeynman(t *testing.T) {
 
 func TestZeroField(t *testing.T) {
 	t.Parallel()
-	// f = 0: η_n = n², φ_n = √2 sin(nπξ) (DESIGN.md "Facts the code relies
-	// on"), exactly.
+	// f = 0: η_n = n², φ_n = √2 sin(nπξ) (the flat well; common practice,
+	// no source), exactly.
 	for _, f := range []float64{0, math.Copysign(0, -1)} {
 		for order := 0; order <= 2; order++ {
 			s := perturb.Solver{Order: order}
@@ -219,7 +219,8 @@ func TestZeroField(t *testing.T) {
 }
 
 // TestMirror checks η_n(−f) = η_n(f) bit for bit, the dipole odd in f and
-// φ_n(ξ; −f) = (−1)^(n+1) φ_n(1 − ξ; f) (DESIGN.md, mirror symmetry).
+// φ_n(ξ; −f) = (−1)^(n+1) φ_n(1 − ξ; f) (mirror symmetry; common practice,
+// no source).
 func TestMirror(t *testing.T) {
 	t.Parallel()
 	for order := 1; order <= 2; order++ {

