@@ -36,8 +36,8 @@ func ulp(x float64) float64 {
 }
 
 // Flat well: ∫k dξ = π√η = nπ gives η = n² exactly (a fact of the trade;
-// common practice, no source); both rules must return it, with Err = 0, for f = 0, −0 and fields
-// so small that the shift is below 1e-300.
+// common practice, no source); both rules must return it, with Err = 0,
+// for f = 0, −0 and fields so small that the shift is below 1e-300.
 func TestZeroField(t *testing.T) {
 	t.Parallel()
 	for _, r := range rules {
