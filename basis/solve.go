@@ -119,11 +119,14 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 			for n := 1 + m&1; n <= N; n += 2 { // only m + n odd couple
 				rh, rl := ratio(m, n)
 				c := a[(n-1)*N : (n-1)*N+kk]
+				row, lo := row[:len(c)], lo[:len(c)]
 				for j, cj := range c {
-					p, e := twoProd(rh, cj)
-					s, t := twoSum(row[j], p)
+					p := rh * cj
+					s := row[j] + p
+					bb := s - row[j]
+					// twoProd's and twoSum's error terms, inlined.
+					lo[j] += ((row[j] - (s - bb)) + (p - bb)) + math.FMA(rh, cj, -p) + rl*cj
 					row[j] = s
-					lo[j] += t + e + rl*cj
 				}
 			}
 			for j := range row {

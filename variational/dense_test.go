@@ -88,9 +88,12 @@ func TestBracketsDense(t *testing.T) {
 			// The race detector slows the quadrature loops twentyfold;
 			// every third field keeps the -race run short (the full grid
 			// runs without it). Sine, twice as slow as Poly (its lower
-			// bounds come from Poly spaces), takes every other field.
+			// bounds come from Poly spaces), takes every other field
+			// (every sixth under -race).
 			step := 1
 			switch {
+			case raceEnabled && fam == Sine:
+				step = 6
 			case raceEnabled && fam != Tilt:
 				step = 3
 			case fam == Sine:

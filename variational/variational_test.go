@@ -555,7 +555,13 @@ func TestCheck(t *testing.T) {
 			t.Parallel()
 			fields := tc.fields
 			if raceEnabled && tc.s.Family != Tilt {
-				fields = fields[:2] // twenty times slower under -race
+				// Twenty times slower under -race: the contract's
+				// concurrency checks need one field; the accuracy is
+				// the same as without the race detector.
+				if tc.k > 3 {
+					t.Skip("twelve levels: run without -race")
+				}
+				fields = fields[:1]
 			}
 			r := exacttest.TestSolver(t, tc.s, exact.Grid{Fields: fields, Levels: tc.k, MaxRatio: 10})
 			if r != nil {
