@@ -4,11 +4,10 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"sync"
 
-	"github.com/google/go-cmp/cmp"
-	"github.com/google/go-cmp/cmp/cmpopts"
 	"github.com/tiltwell/tiltwell"
 	"gonum.org/v1/gonum/integrate/quad"
 )
@@ -147,11 +146,20 @@ type Report struct {
 	// Violations lists broken rules of the Solver contract and errors the
 	// solver returned on the grid.
 	Violations []string
-	// Diff compares the energies, keyed "f=… n=…", cmp.Diff(want, got) with
-	// cmpopts.EquateApprox(0, margin), "(-want +got)", where the margin
-	// is Tol, or the largest error estimate on the grid if Tol is 0 (plus
-	// the reference's own error in both cases). It is empty if every
-	// energy is within the margin.
+	// Margin is the distance |η − η_exact| beyond which a level enters
+	// Diff: Tol, or the largest error estimate on the grid if Tol is 0,
+	// plus the largest error estimate of the reference, in E₁.
+	Margin float64
+	// Diff lists the levels beyond Margin, and only those, in grid order,
+	// two lines each, "(-want +got)":
+	//
+	//	-f=5.1 n=3: 9.04957041621239
+	//	+f=5.1 n=3: 9.049579465782806
+	//
+	// the energies written in the shortest form that reads back as the
+	// same float64 (strconv 'g', −1). At most maxDiff (50) levels are
+	// listed, then a line "… and N more levels beyond the margin". Diff
+	// is empty if every energy is within the margin.
 	Diff string
 }
 
@@ -261,9 +269,9 @@ func checkLimits(tol, maxRatio float64) error {
 // check compares s with the reference levels ref[i] at fields[i].
 func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, maxRatio float64) *Report {
 	r := &Report{Solver: fmt.Sprintf("%T", s), Fields: len(fields), Tol: tol}
-	// The diff compares energies keyed by "f=… n=…": one line per side
-	// for each level beyond the margin.
-	want, got := map[string]float64{}, map[string]float64{}
+	// got[i] are the solver's energies at fields[i] (nil where it broke
+	// the contract), for the diff once the margin is known.
+	got := make([][]float64, len(fields))
 	var nEst, underEst, underRig, underGross int
 	var smallListed []Point
 	maxClaim, maxRef := 0.0, 0.0
@@ -279,13 +287,13 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 		}
 		r.dstReuse(s, ls, f, k)
 		r.mirror(s, ls, f, k)
+		got[i] = make([]float64, k)
 		for j, l := range ls {
 			rl := ref[i][j]
 			p := Point{F: f, N: l.N, Want: rl.Energy, Got: l.Energy, Err: l.Err, Bound: l.Bound, RefErr: rl.Err}
 			d := p.True()
 			r.Points++
-			key := fmt.Sprintf("f=%g n=%d", f, l.N)
-			want[key], got[key] = rl.Energy, l.Energy
+			got[i][j] = l.Energy
 			maxClaim = math.Max(maxClaim, l.Err)
 			maxRef = math.Max(maxRef, rl.Err)
 			if d > r.Abs.Value || r.Points == 1 {
@@ -350,15 +358,52 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 	if ws, ok := s.(tiltwell.WaveSolver); ok {
 		r.waves(ws, fields, ref)
 	}
-	margin := tol
-	if margin == 0 {
-		margin = maxClaim
+	r.Margin = tol
+	if r.Margin == 0 {
+		r.Margin = maxClaim
 	}
-	margin += maxRef
-	if diff := cmp.Diff(want, got, cmpopts.EquateApprox(0, margin)); diff != "" {
-		r.Diff = diff
-	}
+	r.Margin += maxRef
+	r.Diff = diff(fields, ref, got, r.Margin)
 	return r
+}
+
+// maxDiff is the most levels Report.Diff lists.
+const maxDiff = 50
+
+// diff lists the levels whose energy got[i][j] is farther than margin
+// from ref[i][j], in the format documented at Report.Diff.
+func diff(fields []float64, ref [][]tiltwell.Level, got [][]float64, margin float64) string {
+	var b []byte
+	listed, more := 0, 0
+	for i, f := range fields {
+		for j, e := range got[i] {
+			w := ref[i][j].Energy
+			if !(math.Abs(e-w) > margin) {
+				continue
+			}
+			if listed == maxDiff {
+				more++
+				continue
+			}
+			listed++
+			for _, side := range []struct {
+				sign byte
+				v    float64
+			}{{'-', w}, {'+', e}} {
+				b = append(b, side.sign, 'f', '=')
+				b = strconv.AppendFloat(b, f, 'g', -1, 64)
+				b = append(b, " n="...)
+				b = strconv.AppendInt(b, int64(j+1), 10)
+				b = append(b, ": "...)
+				b = strconv.AppendFloat(b, side.v, 'g', -1, 64)
+				b = append(b, '\n')
+			}
+		}
+	}
+	if more > 0 {
+		b = fmt.Appendf(b, "… and %d more levels beyond the margin\n", more)
+	}
+	return string(b)
 }
 
 func (r *Report) violate(format string, args ...any) {
@@ -701,8 +746,11 @@ func (r *Report) String() string {
 		}
 	}
 	if r.Diff != "" {
-		b.WriteString("  energies beyond the margin (-want +got):\n")
-		b.WriteString(r.Diff)
+		fmt.Fprintf(&b, "  energies beyond the margin %.3g (-want +got):\n", r.Margin)
+		for line := range strings.Lines(r.Diff) {
+			b.WriteString("    ")
+			b.WriteString(line)
+		}
 	}
 	return b.String()
 }

@@ -336,6 +336,39 @@ func TestCheckSmallUndershoot(t *testing.T) {
 	}
 }
 
+// TestCheckDiff: the diff lists the levels beyond the margin, and only
+// those, each with both energies, in grid order.
+func TestCheckDiff(t *testing.T) {
+	t.Parallel()
+	fields := linspace(0, 5.1, 101)
+	r, err := exact.Check(wrongLevel{n: 3, rel: 1e-6, above: 5}, exact.Grid{Fields: fields, Levels: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var want strings.Builder
+	for _, f := range fields[99:] {
+		l, err := exact.Solver{}.Level(f, 3)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fmt.Fprintf(&want, "-f=%v n=3: %v\n+f=%v n=3: %v\n", f, l.Energy, f, l.Energy*(1+1e-6))
+	}
+	if r.Diff != want.String() {
+		t.Errorf("diff:\n%s\nwant:\n%s", r.Diff, want.String())
+	}
+	if m := r.Margin; !(m > 1e-14 && m < 1e-12) {
+		t.Errorf("margin %g, want the largest estimates on the grid, ~1e-13", m)
+	}
+	// A long diff stops after 50 levels.
+	r, err = exact.Check(offset{d: 1e-6}, exact.Grid{Fields: linspace(1, 2, 13), Levels: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := strings.Count(r.Diff, "\n"); n != 101 || !strings.HasSuffix(r.Diff, "… and 15 more levels beyond the margin\n") {
+		t.Errorf("diff of 65 levels has %d lines, want 2×50 and one for the 15 more:\n%s", n, r.Diff)
+	}
+}
+
 // TestCheckReport looks inside the report of the 1e-6 offset.
 func TestCheckReport(t *testing.T) {
 	t.Parallel()
@@ -360,14 +393,15 @@ func TestCheckReport(t *testing.T) {
 		t.Errorf("violations for a contract-keeping solver: %q", r.Violations)
 	}
 	s := r.String()
-	// The diff shows the shifted energy as cmp formats a float64, the
+	// The diff shows both energies as strconv formats a float64, the
 	// shortest text that reads back the same.
 	e1, err := exact.Solver{}.Level(10, 1)
 	if err != nil {
 		t.Fatal(err)
 	}
-	shifted := strconv.FormatFloat(e1.Energy+1e-6, 'g', -1, 64)
-	for _, want := range []string{"FAIL", "(-want +got)", "\"f=10 n=1\":", shifted, "undershot", "… and 5 more", "tolerance 1e-07: 15 levels beyond it"} {
+	shifted := "+f=10 n=1: " + strconv.FormatFloat(e1.Energy+1e-6, 'g', -1, 64) + "\n"
+	exact1 := "-f=10 n=1: " + strconv.FormatFloat(e1.Energy, 'g', -1, 64) + "\n"
+	for _, want := range []string{"FAIL", "(-want +got)", exact1 + "    " + shifted, "undershot", "… and 5 more", "tolerance 1e-07: 15 levels beyond it"} {
 		if !strings.Contains(s, want) {
 			t.Errorf("report lacks %q:\n%s", want, s)
 		}
