@@ -12,13 +12,13 @@ import (
 // relErr returns |got − want| / scale.
 func relErr(got, want, scale float64) float64 { return math.Abs(got-want) / scale }
 
-// TestAiryPublished checks the Airy functions against published values.
+// TestAiryPublished checks the Airy functions against the closed forms at
+// z = 0 and independent high-precision values elsewhere.
 func TestAiryPublished(t *testing.T) {
 	t.Parallel()
 	// DLMF 9.2.3–9.2.6 (closed forms in Γ(1/3), Γ(2/3)) at z = 0, and
-	// 20-digit values at z = ±1, ±5, as listed in
-	// shared/reference/check-values.md §1a and §1c (computed there with
-	// mpmath; Ai(1) matches a published 40-digit value).
+	// 20-digit values at z = ±1, ±5, all computed independently at high
+	// precision (mpmath), not a published table.
 	cases := []struct {
 		z                  float64
 		ai, aip, bi, bip   float64
@@ -59,8 +59,9 @@ func TestAiryPublished(t *testing.T) {
 	}
 }
 
-// TestAiryZerosTable checks a_k and Ai′(a_k) against DLMF Table 9.9.1 (A&S
-// Table 10.13), as listed with 16–17 digits in check-values.md §1b.
+// TestAiryZerosTable checks a_k and Ai′(a_k) against DLMF Table 9.9.1
+// (https://dlmf.nist.gov/9.9#T1) and A&S Table 10.13, p. 478, here with
+// 16–17 digits computed independently at high precision (mpmath).
 func TestAiryZerosTable(t *testing.T) {
 	t.Parallel()
 	table := []struct {
@@ -136,8 +137,9 @@ func TestAiryZerosAsymptotic(t *testing.T) {
 	}
 }
 
-// TestModulusPhase checks M and θ against DLMF 9.8 values listed in
-// check-values.md §1e (mpmath, 18 digits), and θ(a_k) = kπ (DLMF 9.9.1).
+// TestModulusPhase checks M and θ (DLMF 9.8.3, 9.8.4) against 18-digit
+// values computed independently at high precision (mpmath), and
+// θ(a_k) = kπ (DLMF 9.9.1).
 func TestModulusPhase(t *testing.T) {
 	t.Parallel()
 	for _, c := range []struct{ x, m, theta float64 }{
@@ -389,10 +391,10 @@ func TestAiryHugeArguments(t *testing.T) {
 }
 
 // TestAiryExtremes: no NaN from any finite argument, and the limits the
-// documentation promises (common practice, no source: Ai → 0, Bi → +Inf
-// as z → +∞, DLMF 9.7.5, 9.7.7; |Ai|, |Bi| ≤ M as z → −∞, DLMF 9.8.1,
-// 9.8.2). Right of z = 104.7 Bi and M overflow, right of 172 Ai underflows
-// to 0; the Wronskian Ai Bi′ − Ai′ Bi = 1/π (DLMF 9.2.7) holds on the left.
+// documentation promises: Ai → 0, Bi → +∞ as z → +∞ (DLMF 9.7.5, 9.7.7),
+// and |Ai|, |Bi| ≤ M = √(Ai² + Bi²) as z → −∞ (DLMF 9.8.1–9.8.3). Right of
+// z = 104.7 Bi and M overflow, right of 172 Ai underflows to 0; the
+// Wronskian Ai Bi′ − Ai′ Bi = 1/π (DLMF 9.2.7) holds on the left.
 func TestAiryExtremes(t *testing.T) {
 	t.Parallel()
 	var zs []float64
