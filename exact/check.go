@@ -93,8 +93,9 @@ const SmallExcess = 3
 // RoundingULPs is the rounding floor of the undershoot rule, in units in
 // the last place of max(1, |η_exact|): a true error within
 // RoundingULPs × 2⁻⁵² × max(1, |η_exact|) (8.9e-16 for |η| ≤ 1) is
-// rounding of a float64 energy, which no estimate need cover, and counts
-// as small however small the estimate.
+// rounding of a float64 energy: at an Estimate level it counts as a small
+// undershoot however small the estimate (a Rigorous level must still
+// cover it).
 const RoundingULPs = 4
 
 // roundingFloor is RoundingULPs ulps of max(1, |eta|).

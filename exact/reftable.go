@@ -75,8 +75,13 @@ func (e *TableError) Error() string {
 
 // NewTable computes the table of the lowest k levels at each of the fields
 // with [Solver]. It returns an error, as [Solver.Levels] does, for a field
-// that is not finite or beyond MaxField and for k outside 1..MaxLevels.
+// that is not finite or beyond MaxField and for k outside 1..MaxLevels,
+// and a [*TableError], before solving anything, for more than
+// [MaxTableFields] fields or [MaxTableRows] levels in all.
 func NewTable(fields []float64, k int) (*Table, error) {
+	if len(fields) > MaxTableFields || (k > 0 && len(fields) > MaxTableRows/k) {
+		return nil, &TableError{Msg: fmt.Sprintf("%d fields of %d levels: more than %d fields or %d levels", len(fields), k, MaxTableFields, MaxTableRows)}
+	}
 	t := &Table{Fields: append([]float64(nil), fields...), Levels: make([][]tiltwell.Level, len(fields))}
 	for i, f := range fields {
 		ls, err := Solver{}.Levels(nil, f, k)

@@ -453,6 +453,13 @@ func TestNewTableErrors(t *testing.T) {
 	if _, err := exact.NewTable(nil, 2); !errors.As(err, &te) {
 		t.Errorf("no fields: error %v, want a *TableError", err)
 	}
+	// Beyond the limits: refused before solving (a million levels would
+	// take seconds).
+	for _, c := range []struct{ fields, k int }{{exact.MaxTableFields + 1, 1}, {1100, exact.MaxLevels}} {
+		if _, err := exact.NewTable(make([]float64, c.fields), c.k); !errors.As(err, &te) {
+			t.Errorf("%d fields of %d levels: error %v, want a *TableError", c.fields, c.k, err)
+		}
+	}
 }
 
 // FuzzReadTable: any input is read or refused with a *TableError, never a
