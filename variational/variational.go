@@ -42,6 +42,10 @@ const (
 	//
 	// of Bastard, Mendez, Chang and Esaki (Phys. Rev. B 28, 3241 (1983)),
 	// with ⟨H⟩ and ⟨H²⟩ in closed form. It gives the ground level only.
+	// Its lower bound comes from a Poly space of 8 to 32 functions at the
+	// same tilt (see the package documentation), which makes a call about
+	// 2.6× as long as the closed form alone (38 µs against 15 µs at
+	// f = 10, BenchmarkLevels).
 	Tilt
 )
 
