@@ -8,6 +8,9 @@ import (
 	"time"
 
 	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/wkb"
 )
 
 // flatSolver is a cheap test solver: η_n = n² at every field (the f = 0
@@ -264,5 +267,28 @@ func TestChoosePanickingCandidate(t *testing.T) {
 		if tr.Err == nil || tr.Met {
 			t.Errorf("%s: trial %+v, want a recorded failure", tr.Name, tr)
 		}
+	}
+}
+
+// BenchmarkChoose times one Choose call among perturb2, wkb and exact over
+// 5 fields in [0, 1] and 3 levels: at tol=1e-3 all three meet the
+// tolerance and perturb2 wins; at tol=1e-8 only exact does. The ms per
+// call is the cost stated in Choose's documentation.
+func BenchmarkChoose(b *testing.B) {
+	cands := []tiltwell.Candidate{
+		{Name: "perturb2", Solver: perturb.Solver{Order: 2}},
+		{Name: "wkb", Solver: wkb.Solver{}},
+		{Name: "exact", Solver: exact.Solver{}},
+	}
+	fields := []float64{0, 0.25, 0.5, 0.75, 1}
+	for _, tol := range []float64{1e-3, 1e-8} {
+		b.Run(fmt.Sprintf("tol=%g/fields=5/k=3", tol), func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := tiltwell.Choose(cands, tol, fields, 3); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
 	}
 }

@@ -410,18 +410,57 @@ func FuzzSweep(f *testing.F) {
 	})
 }
 
-// BenchmarkSweep: a 21-field sweep of e1–hh1 and e1–hh2 for the demo
-// pair, with exact.Solver.
-func BenchmarkSweep(b *testing.B) {
-	var fields []float64
-	for kv := 0.0; kv <= 200; kv += 10 {
-		fields = append(fields, tiltwell.KVPerCM(kv))
+// sweepFields returns n fields evenly spaced over 0–200 kV/cm.
+func sweepFields(n int) []float64 {
+	fields := make([]float64, n)
+	for i := range fields {
+		fields[i] = tiltwell.KVPerCM(200 * float64(i) / float64(n-1))
 	}
-	ts := []tiltwell.Transition{{1, 1}, {1, 2}}
-	b.ReportAllocs()
-	for b.Loop() {
-		if _, err := demoPair.Sweep(exact.Solver{}, nil, fields, ts); err != nil {
-			b.Fatal(err)
-		}
+	return fields
+}
+
+// BenchmarkSweep times a sweep of e1–hh1 and e1–hh2 for the demo pair with
+// exact.Solver (part=sweep), against the level solves alone that it needs
+// (part=levels: electron level 1 at f_e and hole levels 1–2 at −f_h at each
+// field, one goroutine). Both report ns/field; run with -cpu 1,2 for the
+// parallel speed-up. allocs/op at fields=21 and fields=201 show the
+// allocations per field.
+func BenchmarkSweep(b *testing.B) {
+	ts := []tiltwell.Transition{{E: 1, H: 1}, {E: 1, H: 2}}
+	we, wh, err := demoPair.Wells()
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, n := range []int{21, 201} {
+		fields := sweepFields(n)
+		b.Run(fmt.Sprintf("part=levels/fields=%d", n), func(b *testing.B) {
+			le := make([]tiltwell.Level, 0, 1)
+			lh := make([]tiltwell.Level, 0, 2)
+			b.ReportAllocs()
+			runs := 0
+			for b.Loop() {
+				for _, F := range fields {
+					if le, err = (exact.Solver{}).Levels(le, we.Reduced(F), 1); err != nil {
+						b.Fatal(err)
+					}
+					if lh, err = (exact.Solver{}).Levels(lh, -wh.Reduced(F), 2); err != nil {
+						b.Fatal(err)
+					}
+				}
+				runs++
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(runs*n), "ns/field")
+		})
+		b.Run(fmt.Sprintf("part=sweep/fields=%d", n), func(b *testing.B) {
+			b.ReportAllocs()
+			runs := 0
+			for b.Loop() {
+				if _, err := demoPair.Sweep(exact.Solver{}, nil, fields, ts); err != nil {
+					b.Fatal(err)
+				}
+				runs++
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(runs*n), "ns/field")
+		})
 	}
 }
