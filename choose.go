@@ -102,13 +102,14 @@ const (
 // Choose calls the candidates one after another, never concurrently, so
 // that the timings are not disturbed. Every candidate makes one untimed
 // pass over the fields first, so a table a method builds on first use is
-// never counted as its cost. Beyond those passes, timing a candidate
-// costs about 60 µs when a pass over the fields is fast, and one more
-// pass (at most a few more, within 2 ms) when it is slow: one call with
-// perturbation theory, WKB and the exact solver on 5 fields and 3 levels
-// took 0.2 ms (BenchmarkChoose), against 6.6 ms before the timing was
-// sized to the work. To choose over a field range rather than a list,
-// sample it, for instance with gonum's floats.Span, and include both ends.
+// never counted as its cost. Beyond that pass, timing a candidate costs
+// about 60 µs when a pass over the fields is fast (five batches of 10 µs
+// and one pass), and one to six more passes, within 2 ms, when it is
+// slow: one call with second-order perturbation theory, WKB and the exact
+// solver on 5 fields and 3 levels takes 0.2–0.4 ms (BenchmarkChoose), the
+// time of about a thousand exact level solves. To choose over a field
+// range rather than a list, sample it, for instance with gonum's
+// floats.Span, and include both ends.
 //
 // Choose returns an error, and no choice, for an empty candidate list
 // or a nil Solver, including a nil pointer or func in the interface

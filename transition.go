@@ -254,11 +254,13 @@ func firstOrder(ae, ah float64) int {
 // [Solver] in this module is. The result does not depend on the number of
 // goroutines or their timing.
 //
-// Cost: with exact.Solver, for e1–hh1 and e1–hh2 of the demo pair at
-// 0–200 kV/cm, about 8.9 µs per field on one core against 1.1 µs for the
-// three level solves alone (BenchmarkSweep), most of it in the exact
-// solver's Wavefunction; with a WaveSampler, Sweep itself samples each
-// wavefunction at 12–24 points per field and allocates nothing per field.
+// Cost: each wavefunction a transition needs is sampled at 16–20 points
+// per field for the low levels of a 10 nm GaAs-like pair at 0–200 kV/cm.
+// With exact.Solver, e1–hh1 and e1–hh2 cost about 11 µs per field against
+// 1.4 µs for the three level solves alone (BenchmarkSweep, 201 fields, one
+// core of a shared machine); most of the rest is the exact solver's
+// Wavefunction, which solves each level again and allocates. With a
+// [WaveSampler], Sweep allocates nothing per field (TestSweepSampler).
 //
 // Sweep returns an error, and no lines, for a width or mass that
 // [NewWell] refuses (wrapping [ErrUnits]), a nil solver or a nil pointer

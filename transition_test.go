@@ -641,7 +641,19 @@ type (
 	spreadSolver struct{ trialSolver }
 	// ptrSolver is a solver with pointer receivers, for typed nils.
 	ptrSolver struct{ trialSolver }
+	// fieldOnly is a basis solver whose levels use its Potential only
+	// away from zero field, so that a panic in it happens on Sweep's
+	// workers (in Wavefunction), not in the zero-field levels Sweep
+	// solves first.
+	fieldOnly struct{ basis.Solver }
 )
+
+func (s fieldOnly) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	if f == 0 {
+		return basis.Solver{}.Levels(dst, f, k)
+	}
+	return s.Solver.Levels(dst, f, k)
+}
 
 func (s badLevel) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
 	dst, err := s.trialSolver.Levels(dst, f, k)
@@ -706,6 +718,7 @@ func TestSweepFaults(t *testing.T) {
 		{"wave=nil", nilWave{}, nil, tiltwell.ErrNoSolver, "nil wavefunction"},
 		{"wave=panics", panicWave{}, nil, tiltwell.ErrPanic, "broken wavefunction"},
 		{"potential=panics", panicky, nil, tiltwell.ErrPanic, "broken potential"},
+		{"potential=panics-on-worker", fieldOnly{panicky}, nil, tiltwell.ErrPanic, "F = 0 V/m: a solver or its wavefunction panicked: broken potential"},
 		{"wave=spread", spreadSolver{}, nil, tiltwell.ErrOutOfRange, "[-0.2, 1.2]"},
 		{"electron=typed-nil", typedNil, nil, tiltwell.ErrNoSolver, "nil *tiltwell_test.ptrSolver"},
 		{"hole=typed-nil", trialSolver{}, typedNil, tiltwell.ErrNoSolver, "nil *tiltwell_test.ptrSolver"},

@@ -203,54 +203,131 @@ func run(args []string, out io.Writer) (int, error) {
 	return code, err
 }
 
-// write writes the header and the rows, one field at a time: each row is
-// formatted into one reused buffer (the method and f once per field), so
-// neither time nor memory goes to anything but the digits.
+// chunk is the levels of a run of consecutive fields, passed from the
+// goroutine that solves them to the one that writes them.
+type chunk struct {
+	fields []float64        // the fields, a window of options.fields
+	levels []tiltwell.Level // field i's levels at [i·n, i·n + count[i])
+	count  []int            // levels returned for each field
+	errs   []error          // the error of each field's Levels call
+}
+
+// chunks is how many chunks are in flight: one being solved, one being
+// written, one waiting. Memory stays at chunks·chunkLevels levels
+// whatever the number of fields.
+const (
+	chunks      = 3
+	chunkLevels = 512
+)
+
+// write writes the header and the rows, one field at a time, in order.
+// The levels are solved on a goroutine of their own while the rows are
+// written on this one, so with two cores the digits cost no wall-clock
+// time beyond the solving; each row is formatted into one reused buffer
+// (the method and f once per field).
 func write(w *bufio.Writer, s tiltwell.Solver, o options) (int, error) {
 	if _, err := w.WriteString(header); err != nil {
 		return 1, err
 	}
+	per := max(1, chunkLevels/o.n) // fields per chunk
+	free := make(chan *chunk, chunks)
+	for range chunks {
+		free <- &chunk{levels: make([]tiltwell.Level, per*o.n), count: make([]int, per), errs: make([]error, per)}
+	}
+	full := make(chan *chunk, chunks)
+	done := make(chan struct{})
+	defer close(done)
+	go solve(s, o, per, free, full, done)
+
 	var soft error
-	lv := make([]tiltwell.Level, 0, o.n)
 	var buf []byte
-	for _, f := range o.fields {
-		var err error
-		lv, err = s.Levels(lv, f, o.n)
-		if err != nil {
-			if len(lv) == 0 || !errors.Is(err, tiltwell.ErrOutOfRange) {
-				// No usable result: bad input for this method.
-				return 2, err
+	for c := range full {
+		for i, f := range c.fields {
+			lv := c.levels[i*o.n : i*o.n+c.count[i]]
+			if err := c.errs[i]; err != nil {
+				if len(lv) == 0 || !errors.Is(err, tiltwell.ErrOutOfRange) {
+					// No usable result: bad input for this method.
+					return 2, err
+				}
+				soft = err
 			}
-			soft = err
-		}
-		buf = append(buf[:0], o.method...)
-		buf = append(buf, '\t')
-		buf = appendFloat(buf, f)
-		buf = append(buf, '\t')
-		prefix := len(buf)
-		for _, l := range lv {
-			buf = buf[:prefix]
-			buf = strconv.AppendInt(buf, int64(l.N), 10)
+			buf = append(buf[:0], o.method...)
 			buf = append(buf, '\t')
-			buf = appendFloat(buf, l.Energy)
+			buf = appendFloat(buf, f)
 			buf = append(buf, '\t')
-			buf = appendFloat(buf, l.Err)
-			buf = append(buf, '\t')
-			buf = append(buf, boundName(l.Bound)...)
-			buf = append(buf, '\t')
-			buf = appendFloat(buf, l.Gamma)
-			buf = append(buf, '\t')
-			buf = appendFloat(buf, l.GammaErr)
-			buf = append(buf, '\n')
-			if _, err := w.Write(buf); err != nil {
-				return 1, err
+			prefix := len(buf)
+			for _, l := range lv {
+				buf = buf[:prefix]
+				buf = strconv.AppendInt(buf, int64(l.N), 10)
+				buf = append(buf, '\t')
+				buf = appendFloat(buf, l.Energy)
+				buf = append(buf, '\t')
+				buf = appendFloat(buf, l.Err)
+				buf = append(buf, '\t')
+				buf = append(buf, boundName(l.Bound)...)
+				buf = append(buf, '\t')
+				buf = appendFloat(buf, l.Gamma)
+				buf = append(buf, '\t')
+				buf = appendFloat(buf, l.GammaErr)
+				buf = append(buf, '\n')
+				if _, err := w.Write(buf); err != nil {
+					return 1, err
+				}
 			}
 		}
+		free <- c
 	}
 	if soft != nil {
 		return 1, soft
 	}
 	return 0, nil
+}
+
+// solve fills chunks taken from free with the levels of o.fields in order
+// and passes them on to full, which it closes at the end. It stops early
+// when done is closed, and after the chunk holding a field with no usable
+// result. A panic in the solver is passed on as that field's error.
+func solve(s tiltwell.Solver, o options, per int, free <-chan *chunk, full chan<- *chunk, done <-chan struct{}) {
+	defer close(full)
+	for start := 0; start < len(o.fields); start += per {
+		var c *chunk
+		select {
+		case c = <-free:
+		case <-done:
+			return
+		}
+		c.fields = o.fields[start:min(start+per, len(o.fields))]
+		stop := false
+		for i, f := range c.fields {
+			dst := c.levels[i*o.n : i*o.n : (i+1)*o.n]
+			lv, err := levels(s, dst, f, o.n)
+			c.count[i] = copy(dst[:cap(dst)], lv[:min(len(lv), o.n)])
+			c.errs[i] = err
+			if err != nil && (len(lv) == 0 || !errors.Is(err, tiltwell.ErrOutOfRange)) {
+				c.fields = c.fields[:i+1]
+				stop = true
+				break
+			}
+		}
+		select {
+		case full <- c:
+		case <-done:
+			return
+		}
+		if stop {
+			return
+		}
+	}
+}
+
+// levels calls s.Levels, turning a panic into an error.
+func levels(s tiltwell.Solver, dst []tiltwell.Level, f float64, k int) (lv []tiltwell.Level, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			lv, err = nil, fmt.Errorf("f = %g: the solver panicked: %v", f, r)
+		}
+	}()
+	return s.Levels(dst, f, k)
 }
 
 // boundName returns b.String() without calling it for the two bounds

@@ -159,6 +159,20 @@ func TestOutsideRange(t *testing.T) {
 	}
 }
 
+// TestFailsMidway: a field the method refuses ends the output with exit
+// status 2 after the rows of the fields before it, in order.
+func TestFailsMidway(t *testing.T) {
+	var out strings.Builder
+	code, err := run([]string{"-f", "0,1,1e12,2", "-n", "2"}, &out)
+	if code != 2 || err == nil {
+		t.Fatalf("exit %d, err %v", code, err)
+	}
+	lines := strings.Split(strings.TrimSuffix(out.String(), "\n"), "\n")
+	if len(lines) != 1+2*2 || !strings.HasPrefix(lines[3], "exact\t1\t1\t") {
+		t.Errorf("output %q, want the header and the rows of f = 0 and 1", out.String())
+	}
+}
+
 // TestHelp checks that -h prints the flags and exits 0.
 func TestHelp(t *testing.T) {
 	var out strings.Builder
