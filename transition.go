@@ -30,8 +30,8 @@ type Pair struct {
 }
 
 // Wells returns the electron's and the hole's [Well]. It returns an error
-// wrapping [ErrUnits] if the width or a mass is not a finite positive
-// number.
+// wrapping [ErrUnits] if [NewWell] refuses the width or a mass (not a
+// finite positive number, or outside the plausible ranges).
 func (p Pair) Wells() (electron, hole Well, err error) {
 	if electron, err = NewWell(p.Width, p.Electron); err != nil {
 		return Well{}, Well{}, fmt.Errorf("tiltwell: electron: %w", err)
@@ -114,8 +114,13 @@ type Line struct {
 	// proportional.
 	Overlap2 float64
 	// OverlapErr is the quadrature's estimate of its own error in
-	// Overlap (see overlapTol for how it is formed). It does not include
-	// the error of the solvers' wavefunctions.
+	// Overlap, at most 1e-12: the Gauss–Legendre order is raised until it
+	// is. It extrapolates the decay of the integrand's Legendre
+	// coefficients at the top of the rule's band to the degrees the rule
+	// misses, and adds the rounding of the sum; held against a 600-point
+	// reference, it covered the true error at every line of the test grid
+	// (TestSweepOverlapErr, TestOverlapEstimate). It does not include the
+	// error of the solvers' wavefunctions.
 	OverlapErr float64
 }
 
