@@ -418,7 +418,8 @@ func TestDemoDocumented(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		for i, cw := range r.Carriers {
+		for i, c := range []tiltwell.Carrier{tiltwell.Electron, tiltwell.HeavyHole, tiltwell.LightHole} {
+			cw := r.Carriers[c]
 			b, _ := cw.Stack.Layer(0)
 			if !near(cw.E1*1e3, tc.e1[i], 0.005) || !near(b.Edge, tc.v[i], 5e-4) || !near(b.Mass, tc.m[i], 5e-4) {
 				t.Errorf("%s %v: E₁ %.4f meV, v %.4f, μ %.4f; documented %v, %v, %v",

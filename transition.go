@@ -42,30 +42,6 @@ func (p Pair) Wells() (electron, hole Well, err error) {
 	return electron, hole, nil
 }
 
-// HoleKind is the valence band a hole level belongs to.
-//
-// Programs should not rely on the underlying numeric value of a HoleKind
-// being constant.
-type HoleKind int
-
-const (
-	// HeavyHole is the heavy-hole band, written "hh": the zero value.
-	HeavyHole HoleKind = iota
-	// LightHole is the light-hole band, written "lh".
-	LightHole
-)
-
-// String returns "hh" or "lh".
-func (k HoleKind) String() string {
-	switch k {
-	case HeavyHole:
-		return "hh"
-	case LightHole:
-		return "lh"
-	}
-	return "HoleKind(" + strconv.Itoa(int(k)) + ")"
-}
-
 // Transition names an interband transition by its electron level E, its
 // hole level H (1 for the ground level) and the hole's band: e1–hh1 is
 // Transition{E: 1, H: 1}, e1–hh2 is Transition{E: 1, H: 2}.
@@ -75,7 +51,7 @@ type Transition struct {
 	// Hole is the hole's band, heavy hole (the zero value) or light hole.
 	// It names the transition; the hole's mass and levels are those of
 	// the Pair and the hole solver given to [Pair.Sweep].
-	Hole HoleKind
+	Hole Carrier
 }
 
 // String returns the transition in the usual notation, such as "e1-hh2"

@@ -369,7 +369,7 @@ func TestTransitionString(t *testing.T) {
 		{tiltwell.Transition{E: 1, H: 1}, "e1-hh1"},
 		{tiltwell.Transition{E: 1, H: 2}, "e1-hh2"},
 		{tiltwell.Transition{E: 2, H: 1, Hole: tiltwell.LightHole}, "e2-lh1"},
-		{tiltwell.Transition{E: 1, H: 1, Hole: 7}, "e1-HoleKind(7)1"},
+		{tiltwell.Transition{E: 1, H: 1, Hole: 7}, "e1-Carrier(7)1"},
 	} {
 		if got := c.t.String(); got != c.want {
 			t.Errorf("%+v.String() = %q, want %q", c.t, got, c.want)
