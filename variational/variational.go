@@ -95,8 +95,18 @@ type Solver struct {
 	// Extra sets the Ritz dimension of the Poly and Sine families: level
 	// n uses min(2n + Extra, 40) functions. If Extra is 0 it is defaulted
 	// to 16; it must lie in 0..MaxExtra (other values give an error
-	// wrapping [tiltwell.ErrUnits]). Tilt ignores it.
+	// wrapping [tiltwell.ErrUnits]). Tilt ignores it. On a finite Stack
+	// (at f ≠ 0) the Poly space of a call for k levels has
+	// min(2k + Extra − 2, 40) well functions beyond the two interface
+	// functions (see the package documentation).
 	Extra int
+	// Stack is the layer structure; the zero value is the well between
+	// infinitely high walls. The Poly and Tilt families also solve a
+	// single finite well (a three-layer stack with both barriers above
+	// the well, see the package documentation); other stacks, and the
+	// Sine family on any finite stack, give an error wrapping
+	// [errors.ErrUnsupported].
+	Stack tiltwell.Stack
 }
 
 var (
@@ -123,12 +133,18 @@ type Bracket struct {
 	// sign of the field (β(−f) = −β(f)). Pass the Brackets of a nearby
 	// field to [Solver.Brackets] to start the searches from these values.
 	Tilt float64
+	// GammaErr is the estimate of the escape width Γ (in E₁) that the
+	// real variational problem leaves out: 0 for infinite walls and at
+	// zero field, and on a finite well at f ≠ 0 the first-order width of
+	// the level's own trial function with a margin (see the package
+	// documentation).
+	GammaErr float64
 }
 
 // Level returns the bracket as a [tiltwell.Level]: Energy = Upper,
-// Err = Upper − Lower.
+// Err = Upper − Lower, Gamma = 0 and GammaErr.
 func (b Bracket) Level() tiltwell.Level {
-	return tiltwell.Level{N: b.N, Energy: b.Upper, Err: b.Upper - b.Lower, Bound: b.Bound}
+	return tiltwell.Level{N: b.N, Energy: b.Upper, Err: b.Upper - b.Lower, Bound: b.Bound, GammaErr: b.GammaErr}
 }
 
 // Contains reports whether Lower ≤ eta ≤ Upper.
@@ -155,6 +171,9 @@ func (s Solver) check(f float64, k int) error {
 	if s.Family == Sine {
 		maxField = SineMaxField
 	}
+	if err := s.checkStack(); err != nil {
+		return err
+	}
 	return tiltwell.CheckArgs("variational", f, k, s.maxLevels(), maxField)
 }
 
@@ -180,6 +199,18 @@ func (s Solver) dim(n int) int {
 func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
 	dst = dst[:0]
 	if err := s.check(f, k); err != nil {
+		return dst, err
+	}
+	if !s.Stack.Infinite() {
+		fw := finitePool.Get().(*finiteWork)
+		defer finitePool.Put(fw)
+		br, err := s.finiteBrackets(fw, fw.brackets[:0], f, k, nil)
+		if _, ok := tiltwell.Confined(err); err != nil && !ok {
+			return dst, err
+		}
+		for _, b := range br {
+			dst = append(dst, b.Level())
+		}
 		return dst, err
 	}
 	sp := spacePool.Get().(*space)
@@ -238,6 +269,11 @@ func (s Solver) Brackets(dst []Bracket, f float64, k int, warm []Bracket) ([]Bra
 			return dst, fmt.Errorf("variational: warm[%d].Tilt = %v is not a finite tilt: %w", i, t, tiltwell.ErrUnits)
 		}
 	}
+	if !s.Stack.Infinite() {
+		fw := finitePool.Get().(*finiteWork)
+		defer finitePool.Put(fw)
+		return s.finiteBrackets(fw, dst, f, k, warm)
+	}
 	sp := spacePool.Get().(*space)
 	defer spacePool.Put(sp)
 	return s.brackets(sp, dst, f, k, warm)
@@ -256,6 +292,20 @@ func (s Solver) Sweep(dst []Bracket, fs []float64, k int) ([]Bracket, error) {
 		if err := s.check(f, k); err != nil {
 			return dst, err
 		}
+	}
+	if !s.Stack.Infinite() {
+		fw := finitePool.Get().(*finiteWork)
+		defer finitePool.Put(fw)
+		var warm []Bracket
+		for i, f := range fs {
+			out, err := s.finiteBrackets(fw, dst[len(dst):], f, k, warm)
+			dst = append(dst, out...)
+			if err != nil {
+				return dst, err
+			}
+			warm = dst[i*k : (i+1)*k]
+		}
+		return dst, nil
 	}
 	sp := spacePool.Get().(*space)
 	defer spacePool.Put(sp)

@@ -30,6 +30,9 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	if err := s.check(f, n); err != nil {
 		return nil, err
 	}
+	if !s.Stack.Infinite() {
+		return s.finiteWavefunction(f, n)
+	}
 	af, neg := tiltwell.Fold(f)
 	var w tiltwell.Wavefunction
 	if s.Family == Tilt {

@@ -1,0 +1,282 @@
+package variational
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sync"
+
+	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/internal/squarewell"
+)
+
+// finiteWork is the scratch of one call on a finite well.
+type finiteWork struct {
+	small, large *fspace
+	brackets     [MaxLevels]Bracket
+}
+
+var finitePool = sync.Pool{New: func() any {
+	return &finiteWork{small: newFspace(), large: newFspace()}
+}}
+
+// checkStack reports a stack or family the package does not solve.
+func (s Solver) checkStack() error {
+	if s.Stack.Infinite() {
+		return nil
+	}
+	if s.Family == Sine {
+		return fmt.Errorf("variational: the sine family needs infinite walls, not the stack %v: %w", s.Stack, errors.ErrUnsupported)
+	}
+	if _, err := squarewell.FromStack(s.Stack); err != nil {
+		return fmt.Errorf("variational: stack %v: only a single finite well with both barriers above it is supported (%w): %w", s.Stack, err, errors.ErrUnsupported)
+	}
+	return nil
+}
+
+// finiteDims returns the numbers of well bubbles of the reported (large)
+// and the convergence-check (small) spaces of a call for k levels.
+func (s Solver) finiteDims(k int) (large, small int) {
+	e := s.Extra
+	if e == 0 {
+		e = defaultExtra
+	}
+	large = max(4, min(maxWellDim, 2*k+e-2))
+	return large, large - 4
+}
+
+// finiteTilt is the tilt of the Poly space's well functions at reduced
+// field f ≥ 0: the trend of the infinite-well optimum (ritzGuess).
+func finiteTilt(f float64) float64 { return ritzGuess(polyShape, f) }
+
+// Escape validity: a level whose estimated relative remainder of the
+// perturbative escape treatment, x(1 + 3ε²) with x = |δ₂|/(Γ/2), exceeds
+// maxEscapeRemainder is too broad for the real variational problem and is
+// reported as not confined.
+const maxEscapeRemainder = 0.5
+
+// gammaRel is the relative margin of GammaErr for the variational and
+// rounding error of Γ₁ itself (measured below 1e-10 on the test grid).
+const gammaRel = 1e-6
+
+// finiteBrackets computes the brackets of a finite well; the arguments
+// have been checked. When fewer than k levels are confined it returns
+// those with a *tiltwell.ConfinedError.
+func (s Solver) finiteBrackets(fw *finiteWork, dst []Bracket, f float64, k int, warm []Bracket) ([]Bracket, error) {
+	dst = dst[:0]
+	st, af, mirrored := s.Stack.Fold(f)
+	w, err := squarewell.FromStack(st)
+	if err != nil {
+		return dst, fmt.Errorf("variational: %w", err)
+	}
+	sign := 1.0
+	if mirrored {
+		sign = -1
+	}
+	confined := func(n int, why string) error {
+		return &tiltwell.ConfinedError{Method: "variational", F: f, Asked: k, Confined: n - 1, Why: fmt.Sprintf("level %d: %s", n, why)}
+	}
+	if af == 0 {
+		c := w.Count()
+		for n := 1; n <= k; n++ {
+			if n > c {
+				return dst, confined(n, fmt.Sprintf("the well binds %d levels at zero field", c))
+			}
+			b, err := zeroFieldBracket(w, n)
+			if err != nil {
+				return dst, err
+			}
+			dst = append(dst, b)
+		}
+		return dst, nil
+	}
+	pwL, pwS := s.finiteDims(k)
+	beta := finiteTilt(af)
+	p := fparams{vL: w.VL, mL: w.ML, vR: w.VR, mR: w.MR, f: af, beta: beta}
+	pl, ps := p, p
+	pl.pw, ps.pw = pwL, pwS
+	r := rules()[pickRule(pl.dim(), beta)]
+	if !fw.large.build(r, pl) || !fw.small.build(r, ps) {
+		return dst, fmt.Errorf("variational: stack %v at f = %g: trial space not positive definite: %w", s.Stack, f, tiltwell.ErrNoConvergence)
+	}
+	prevL, prevS, prevE := math.Inf(-1), math.Inf(-1), math.Inf(-1)
+	for n := 1; n <= k; n++ {
+		lv := fw.large.level(n, prevL)
+		if !lv.ok {
+			return dst, confined(n, "above the barrier")
+		}
+		ls := fw.small.level(n, prevS)
+		b, why := finiteLevelBracket(n, pl, lv, ls, prevE)
+		if why != "" {
+			return dst, confined(n, why)
+		}
+		if s.Family == Tilt {
+			tb, ok := tiltBracket(w, af, b, warm, sign)
+			if !ok {
+				return dst, confined(n, "the one-parameter tilt has no stationary energy below the downhill barrier")
+			}
+			b = tb
+		} else {
+			b.Tilt = sign * beta
+		}
+		dst = append(dst, b)
+		prevL, prevS, prevE = lv.eta, ls.eta, b.Upper
+		if !ls.ok {
+			prevS = math.Inf(1)
+		}
+	}
+	return dst, nil
+}
+
+// finiteLevelBracket turns level n of the large space (lv) and of the
+// small one (ls, possibly not ok) into a bracket at f > 0, or says why the
+// level is not confined. prev is the reported energy of the level below.
+//
+// The reported energy is the large space's fixed point η₀ (a Ritz value,
+// above the level of the real problem, up to rounding). The bracket's
+// width adds:
+//   - the convergence η₀(small) − η₀(large) (the spaces are nested, so the
+//     fixed point falls as the space grows);
+//   - the rounding allowance;
+//   - the escape shift: η_r = η₀ + δ₂ to second order in the escape term,
+//     widened by the relative remainder x(1 + 3ε²), x = |δ₂|/(Γ₁/2), which
+//     covered the measured remainder on the test grid (x(0.6…0.94) for
+//     |ε| ≤ 0.3 up to 0.5 of x(1 + 3ε²) at |ε| ≈ 1.6).
+//
+// GammaErr is Γ₁(1 + x(1 + 3ε²) + gammaRel), Γ₁ the first-order escape
+// width.
+func finiteLevelBracket(n int, p fparams, lv, ls flevel, prev float64) (Bracket, string) {
+	eta := lv.eta
+	conv := 0.0
+	if ls.ok {
+		conv = math.Abs(ls.eta - eta)
+	} else {
+		conv = p.ceiling() - eta
+	}
+	ro := finiteRoundoff(p, eta)
+	rem := 0.0
+	if lv.gamma > 0 {
+		x := math.Abs(lv.shift) / (lv.gamma / 2)
+		rem = x * (1 + 3*lv.e.eps*lv.e.eps)
+		if !(rem <= maxEscapeRemainder) {
+			return Bracket{}, fmt.Sprintf("too broad for the real variational problem (Γ ≈ %.3g, escape remainder %.2g)", lv.gamma, rem)
+		}
+	}
+	up := ro + math.Max(0, lv.shift)*(1+rem) + math.Max(0, -lv.shift)*rem
+	down := conv + ro + math.Max(0, -lv.shift)*(1+rem) + math.Max(0, lv.shift)*rem
+	b := Bracket{N: n, Upper: eta + up, Lower: eta - down, Bound: tiltwell.Estimate, GammaErr: lv.gamma * (1 + rem + gammaRel)}
+	ceil := p.ceiling()
+	switch {
+	case !(b.Upper < ceil):
+		return Bracket{}, "above the barrier"
+	case !(lv.gamma < b.Upper-prev):
+		return Bracket{}, fmt.Sprintf("its width Γ ≈ %.3g exceeds its distance %.3g to the level below", lv.gamma, b.Upper-prev)
+	}
+	return b, ""
+}
+
+// finiteRoundoff is the rounding allowance of a finite-well level at
+// f > 0: c·d·ε·(1 + |η| + f/2), with the space's dimension d and c
+// calibrated against the exact reference (see the tests).
+func finiteRoundoff(p fparams, eta float64) float64 {
+	return 4 * float64(p.dim()) * eps * (1 + math.Abs(eta) + p.f/2)
+}
+
+// tiltBracket returns the bracket of the one-parameter tilt at f > 0,
+// given the Poly bracket b of the ground level: the tilt's energy is the
+// reported one, and the bracket reaches down to the Poly bracket's lower
+// end, so that its width is the tilt's own error plus Poly's.
+func tiltBracket(w squarewell.Well, af float64, b Bracket, warm []Bracket, sign float64) (Bracket, bool) {
+	st, err := w.State(1)
+	if err != nil {
+		return Bracket{}, false
+	}
+	t := newFtilt(w, st, af)
+	guess := 0.0
+	if len(warm) > 0 {
+		guess = sign * warm[0].Tilt
+	}
+	beta, e, ok := t.optimum(guess)
+	if !ok {
+		return Bracket{}, false
+	}
+	ro := 8 * eps * (1 + math.Abs(e) + af/2)
+	tb := Bracket{N: 1, Upper: math.Max(e, b.Upper) + ro, Lower: math.Min(b.Lower, e-ro), Bound: tiltwell.Estimate, Tilt: sign * beta, GammaErr: b.GammaErr}
+	return tb, true
+}
+
+// zeroFieldBracket returns a proven bracket on level n of the finite well
+// at f = 0 (n ≤ w.Count()), by Kato's inclusion (T. Kato, J. Phys. Soc.
+// Japan 4, 334 (1949)): for a trial function φ in the domain of H with
+// Rayleigh quotient E and variance σ², and an interval (α′, α) that holds
+// exactly one level η_n, with σ² < (α − E)(E − α′),
+//
+//	E − σ²/(α − E) ≤ η_n ≤ E + σ²/(E − α′).
+//
+// The trial function is the zero-field state of internal/squarewell at
+// its computed wave number k, made to satisfy the BenDaniel–Duke
+// condition exactly at both interfaces (so that Hφ has no δ-functions) by
+// giving its right tail the decay κ′ = −μ_R k cot(k + δ_L) that matches
+// the well's slope: then Hφ = ηφ up to ξ = 1 and Hφ = η′φ beyond, with
+// η = k²/π² and η′ = v_R − κ′²/(μ_R π²), so with w_R the weight of the
+// right tail
+//
+//	E = η + (η′ − η) w_R,   σ² = (η′ − η)² w_R (1 − w_R).
+//
+// The interval comes from the phase condition k + δ_L(k) + δ_R(k) = nπ
+// without solving it: the phases increase with k and lie in [0, π/2), so
+//
+//	k_{n+1} ≥ (n+1)π − δ_L(k*) − δ_R(k*),  k* = min((n+1)π, π√min(v_L, v_R)),
+//	k_{n−1} ≤ (n−1)π − δ_L((n−2)π) − δ_R((n−2)π),
+//
+// and α = min(min(v_L, v_R), max(n², k_{n+1,lo}²/π²)) is below both the
+// next level and the continuum, α′ = k_{n−1,hi}²/π² above the level below
+// (−∞ for n = 1). The bracket is proven up to floating-point rounding, for
+// which each end carries an allowance calibrated against the exact
+// reference.
+func zeroFieldBracket(w squarewell.Well, n int) (Bracket, error) {
+	st, err := w.State(n)
+	if err != nil {
+		return Bracket{}, fmt.Errorf("variational: %w", err)
+	}
+	pp := math.Pi * math.Pi
+	k := st.K
+	eta := k * k / pp
+	sk, ck := math.Sincos(k + st.DL)
+	kp := -w.MR * k * ck / sk
+	ro := 16 * eps * (1 + eta + math.Sqrt(w.VL*w.ML)/(math.Pi*w.ML) + math.Sqrt(w.VR*w.MR)/(math.Pi*w.MR))
+	b := Bracket{N: n, Lower: eta - ro, Upper: eta + ro, Bound: tiltwell.Estimate}
+	if !(kp > 0) {
+		return b, nil
+	}
+	etap := w.VR - kp*kp/(w.MR*pp)
+	in := 0.5 - (math.Sin(2*(k+st.DL))-math.Sin(2*st.DL))/(4*k)
+	nl := st.A * st.A / (2 * st.KL)
+	nw := st.B * st.B * in
+	nr := st.C * st.C / (2 * kp)
+	wr := nr / (nl + nw + nr)
+	e := eta + (etap-eta)*wr
+	s2 := (etap - eta) * (etap - eta) * wr * (1 - wr)
+	vt := min(w.VL, w.VR)
+	kstar := min(float64(n+1)*math.Pi, math.Pi*math.Sqrt(vt))
+	dl, dr, _, _ := w.Phase(kstar)
+	klo := float64(n+1)*math.Pi - dl - dr
+	nn := float64(n) * float64(n)
+	alpha := min(vt, max(nn, klo*klo/pp))
+	alphap := math.Inf(-1)
+	if n >= 2 {
+		dl, dr, _, _ := w.Phase(float64(n-2) * math.Pi)
+		khi := float64(n-1)*math.Pi - dl - dr
+		alphap = khi * khi / pp
+	}
+	if !(e > alphap && e < alpha && s2 < (alpha-e)*(e-alphap)) {
+		return b, nil
+	}
+	b.Lower = e - s2/(alpha-e) - ro
+	b.Upper = e + ro
+	if n >= 2 {
+		b.Upper += s2 / (e - alphap)
+	}
+	b.Bound = tiltwell.Rigorous
+	return b, nil
+}
