@@ -106,12 +106,12 @@ func (s Solver) finiteBrackets(fw *finiteWork, dst []Bracket, f float64, k int, 
 			return dst, confined(n, "above the barrier")
 		}
 		ls := fw.small.level(n, prevS)
-		b, why := finiteLevelBracket(n, pl, lv, ls, prevE)
+		b, lo, hi, why := finiteLevelBracket(n, pl, lv, ls, prevE)
 		if why != "" {
 			return dst, confined(n, why)
 		}
 		if s.Family == Tilt {
-			tb, ok := tiltBracket(w, af, b, warm, sign)
+			tb, ok := tiltBracket(w, af, b, lo, hi, warm, sign)
 			if !ok {
 				return dst, confined(n, "the one-parameter tilt has no stationary energy below the downhill barrier")
 			}
@@ -120,7 +120,7 @@ func (s Solver) finiteBrackets(fw *finiteWork, dst []Bracket, f float64, k int, 
 			b.Tilt = sign * beta
 		}
 		dst = append(dst, b)
-		prevL, prevS, prevE = lv.eta, ls.eta, b.Upper
+		prevL, prevS, prevE = lv.eta, ls.eta, b.Energy
 		if !ls.ok {
 			prevS = math.Inf(1)
 		}
@@ -133,19 +133,24 @@ func (s Solver) finiteBrackets(fw *finiteWork, dst []Bracket, f float64, k int, 
 // level is not confined. prev is the reported energy of the level below.
 //
 // The reported energy is the large space's fixed point η₀ (a Ritz value,
-// above the level of the real problem, up to rounding). The bracket's
-// width adds:
-//   - the convergence η₀(small) − η₀(large) (the spaces are nested, so the
-//     fixed point falls as the space grows);
-//   - the rounding allowance;
-//   - the escape shift: η_r = η₀ + δ₂ to second order in the escape term,
-//     widened by the relative remainder x(1 + 3ε²), x = |δ₂|/(Γ₁/2), which
-//     covered the measured remainder on the test grid (x(0.6…0.94) for
-//     |ε| ≤ 0.3 up to 0.5 of x(1 + 3ε²) at |ε| ≈ 1.6).
+// above the level η_B of the real problem, up to rounding). The bracket
+// holds
+//   - below η₀, the convergence η₀(small) − η₀(large) (the spaces are
+//     nested, so the fixed point falls as the space grows towards η_B);
+//   - the rounding allowance on both sides;
+//   - the escape shift: η_r = η_B + δ₂(1 + r) with δ₂ the second order in
+//     the escape term, on its own side, widened by the relative remainder
+//     |r| ≤ x(1 + 3ε²), x = |δ₂|/(Γ₁/2), which covered the measured
+//     remainder on the test grid (0.6x…0.94x for |ε| ≤ 0.3, up to half
+//     of x(1 + 3ε²) at |ε| ≈ 1.6).
+//
+// The level's Err, max(Upper − η₀, η₀ − Lower), is then |δ₂|(1 + x(1 +
+// 3ε²)) plus the convergence and rounding terms: its ratio to the true
+// error |δ₂|(1 + r) stays below 3 where the escape dominates.
 //
 // GammaErr is Γ₁(1 + x(1 + 3ε²) + gammaRel), Γ₁ the first-order escape
 // width.
-func finiteLevelBracket(n int, p fparams, lv, ls flevel, prev float64) (Bracket, string) {
+func finiteLevelBracket(n int, p fparams, lv, ls flevel, prev float64) (b Bracket, lo, hi float64, why string) {
 	eta := lv.eta
 	conv := 0.0
 	if ls.ok {
@@ -159,20 +164,23 @@ func finiteLevelBracket(n int, p fparams, lv, ls flevel, prev float64) (Bracket,
 		x := math.Abs(lv.shift) / (lv.gamma / 2)
 		rem = x * (1 + 3*lv.e.eps*lv.e.eps)
 		if !(rem <= maxEscapeRemainder) {
-			return Bracket{}, fmt.Sprintf("too broad for the real variational problem (Γ ≈ %.3g, escape remainder %.2g)", lv.gamma, rem)
+			return Bracket{}, 0, 0, fmt.Sprintf("too broad for the real variational problem (Γ ≈ %.3g, escape remainder %.2g)", lv.gamma, rem)
 		}
 	}
-	up := ro + math.Max(0, lv.shift)*(1+rem) + math.Max(0, -lv.shift)*rem
-	down := conv + ro + math.Max(0, -lv.shift)*(1+rem) + math.Max(0, lv.shift)*rem
-	b := Bracket{N: n, Upper: eta + up, Lower: eta - down, Bound: tiltwell.Estimate, GammaErr: lv.gamma * (1 + rem + gammaRel)}
+	// η_r = η_B + δ₂(1 + r), |r| ≤ rem, with η₀ − conv ≤ η_B ≤ η₀: the
+	// estimated enclosure [lo, hi] of η_r, and the bracket of η₀ itself.
+	s1, s2 := lv.shift*(1-rem), lv.shift*(1+rem)
+	lo = eta - conv - ro + min(s1, s2)
+	hi = eta + ro + max(s1, s2)
+	b = Bracket{N: n, Energy: eta, Lower: min(lo, eta-ro), Upper: max(hi, eta+ro), Bound: tiltwell.Estimate, GammaErr: lv.gamma * (1 + rem + gammaRel)}
 	ceil := p.ceiling()
 	switch {
 	case !(b.Upper < ceil):
-		return Bracket{}, "above the barrier"
-	case !(lv.gamma < b.Upper-prev):
-		return Bracket{}, fmt.Sprintf("its width Γ ≈ %.3g exceeds its distance %.3g to the level below", lv.gamma, b.Upper-prev)
+		return Bracket{}, 0, 0, "above the barrier"
+	case !(lv.gamma < b.Energy-prev):
+		return Bracket{}, 0, 0, fmt.Sprintf("its width Γ ≈ %.3g exceeds its distance %.3g to the level below", lv.gamma, b.Energy-prev)
 	}
-	return b, ""
+	return b, lo, hi, ""
 }
 
 // finiteRoundoff is the rounding allowance of a finite-well level at
@@ -183,10 +191,12 @@ func finiteRoundoff(p fparams, eta float64) float64 {
 }
 
 // tiltBracket returns the bracket of the one-parameter tilt at f > 0,
-// given the Poly bracket b of the ground level: the tilt's energy is the
-// reported one, and the bracket reaches down to the Poly bracket's lower
-// end, so that its width is the tilt's own error plus Poly's.
-func tiltBracket(w squarewell.Well, af float64, b Bracket, warm []Bracket, sign float64) (Bracket, bool) {
+// given the Poly bracket b of the ground level and Poly's estimated
+// enclosure [lo, hi] of the resonance: the tilt's energy is the reported
+// one, and the bracket reaches from it across [lo, hi], so that its Err
+// is the tilt's own distance from Poly's estimate plus Poly's
+// uncertainty.
+func tiltBracket(w squarewell.Well, af float64, b Bracket, lo, hi float64, warm []Bracket, sign float64) (Bracket, bool) {
 	st, err := w.State(1)
 	if err != nil {
 		return Bracket{}, false
@@ -201,7 +211,7 @@ func tiltBracket(w squarewell.Well, af float64, b Bracket, warm []Bracket, sign 
 		return Bracket{}, false
 	}
 	ro := 8 * eps * (1 + math.Abs(e) + af/2)
-	tb := Bracket{N: 1, Upper: math.Max(e, b.Upper) + ro, Lower: math.Min(b.Lower, e-ro), Bound: tiltwell.Estimate, Tilt: sign * beta, GammaErr: b.GammaErr}
+	tb := Bracket{N: 1, Energy: e, Upper: max(e+ro, hi), Lower: min(lo, e-ro), Bound: tiltwell.Estimate, Tilt: sign * beta, GammaErr: b.GammaErr}
 	return tb, true
 }
 
@@ -232,7 +242,8 @@ func tiltBracket(w squarewell.Well, af float64, b Bracket, warm []Bracket, sign 
 // and α = min(min(v_L, v_R), max(n², k_{n+1,lo}²/π²)) is below both the
 // next level and the continuum, α′ = k_{n−1,hi}²/π² above the level below
 // (−∞ for n = 1). The bracket is proven up to floating-point rounding, for
-// which each end carries an allowance calibrated against the exact
+// which each end carries the allowance 16ε(1 + η) + 8ε(v_R + |η′| + η)w_R
+// (the rounding of η = k²/π² and of η′ − η), checked against the exact
 // reference.
 func zeroFieldBracket(w squarewell.Well, n int) (Bracket, error) {
 	st, err := w.State(n)
@@ -244,8 +255,8 @@ func zeroFieldBracket(w squarewell.Well, n int) (Bracket, error) {
 	eta := k * k / pp
 	sk, ck := math.Sincos(k + st.DL)
 	kp := -w.MR * k * ck / sk
-	ro := 16 * eps * (1 + eta + math.Sqrt(w.VL*w.ML)/(math.Pi*w.ML) + math.Sqrt(w.VR*w.MR)/(math.Pi*w.MR))
-	b := Bracket{N: n, Lower: eta - ro, Upper: eta + ro, Bound: tiltwell.Estimate}
+	ro := 16 * eps * (1 + eta)
+	b := Bracket{N: n, Lower: eta - ro, Upper: eta + ro, Energy: eta + ro, Bound: tiltwell.Estimate}
 	if !(kp > 0) {
 		return b, nil
 	}
@@ -257,6 +268,8 @@ func zeroFieldBracket(w squarewell.Well, n int) (Bracket, error) {
 	wr := nr / (nl + nw + nr)
 	e := eta + (etap-eta)*wr
 	s2 := (etap - eta) * (etap - eta) * wr * (1 - wr)
+	// Rounding: of η = k²/π², and of η′ − η (formed from v_R), weighted.
+	ro += 8 * eps * (w.VR + math.Abs(etap) + eta) * wr
 	vt := min(w.VL, w.VR)
 	kstar := min(float64(n+1)*math.Pi, math.Pi*math.Sqrt(vt))
 	dl, dr, _, _ := w.Phase(kstar)
@@ -277,6 +290,7 @@ func zeroFieldBracket(w squarewell.Well, n int) (Bracket, error) {
 	if n >= 2 {
 		b.Upper += s2 / (e - alphap)
 	}
+	b.Energy = b.Upper
 	b.Bound = tiltwell.Rigorous
 	return b, nil
 }

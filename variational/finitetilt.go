@@ -47,7 +47,11 @@ type ftilt struct {
 }
 
 func newFtilt(w squarewell.Well, st squarewell.State, f float64) ftilt {
-	return ftilt{st: st, w: w, f: f, bmin: -st.KR, bmax: st.KL}
+	// The right amplitude C = B sin(k + δ_L) loses its relative accuracy
+	// when the barrier is tall (k + δ_L = π − δ_R with δ_R tiny); at the
+	// root it is B sin δ_R, which keeps it.
+	st.C = st.B * math.Sin(math.Atan2(w.MR*st.K, st.KR))
+	return ftilt{st: st, w: w, f: f, bmin: max(-st.KR, -maxTilt), bmax: min(st.KL, maxTilt)}
 }
 
 // parts returns the norm Σ N and the numerator of E(β), both scaled by
@@ -81,7 +85,7 @@ func (t ftilt) parts(beta float64) (norm, num float64) {
 	return norm, num
 }
 
-// energy returns E(β); +Inf outside (−κ_R, κ_L).
+// energy returns E(β); +Inf outside (−κ_R, κ_L) ∩ (−maxTilt, maxTilt).
 func (t ftilt) energy(beta float64) float64 {
 	if !(beta > t.bmin && beta < t.bmax) {
 		return math.Inf(1)

@@ -69,17 +69,19 @@ func (s Solver) finiteWavefunction(f float64, n int) (tiltwell.Wavefunction, err
 // is normalized between the downhill turning point and +∞, and is positive
 // at ξ = 0.
 type fwave struct {
-	beta           float64
-	pw, mL, mR     int
-	e0, e1, xr     float64
-	rec            []float64
-	v              []float64 // coefficients of the basis
-	psi0, psi1     float64
-	sL, xiT        float64 // downhill: z = sL(ξ − ξ_t)
-	zeta0, q0      float64 // ζ and M²e^(−2ζ) at the interface
-	sR, zR0, lnAi0 float64 // uphill: z = zR0 + sR(ξ − 1), ln Ai(zR0) + ζ − ζ
-	decayR         float64 // a lower bound on the uphill decay rate
-	lo, hi         float64
+	beta       float64
+	pw, mL, mR int
+	e0, e1, xr float64
+	rec        []float64
+	v          []float64 // coefficients of the basis
+	psi0, psi1 float64
+	f          float64
+	vL, muL    float64 // downhill: height above the level at ξ = 0, mass
+	vR, muR    float64 // uphill: likewise at ξ = 1
+	xiT        float64 // the downhill turning point
+	down       downhill
+	up         uphill
+	lo, hi     float64
 }
 
 func newFwave(sp *fspace, lv flevel) *fwave {
@@ -98,20 +100,15 @@ func newFwave(sp *fspace, lv flevel) *fwave {
 	}
 	w.e0, w.e1 = math.Exp(-p.beta*(0-w.xr)), math.Exp(-p.beta*(1-w.xr))
 	for j := range dim {
-		q := lv.coef * (sp.w0[j]*lv.c0 + sp.w1[j]*lv.c1) / (sp.vals[j] - lv.eta)
 		for a := range dim {
-			w.v[a] += q * sp.vecs[a*dim+j]
+			w.v[a] += lv.x[j] * sp.vecs[a*dim+j]
 		}
 	}
-	pp := math.Pi * math.Pi
-	w.sL = math.Cbrt(pp * p.mL * p.f)
-	w.xiT = 0.5 - (p.vL-lv.eta)/p.f
-	a := lv.e.left
-	w.zeta0, w.q0 = a.zeta, a.bi*a.bi+math.Exp(-4*a.zeta)*a.ai*a.ai
-	w.sR = math.Cbrt(pp * p.mR * p.f)
-	w.zR0 = lv.e.right.z
-	w.lnAi0 = lv.e.right.lnAi - lv.e.right.zeta
-	w.decayR = -w.sR * lv.e.right.u
+	w.f = p.f
+	w.vL, w.muL = math.Max(0, (p.vL-p.f/2)-lv.eta), p.mL
+	w.vR, w.muR = math.Max(0, (p.vR+p.f/2)-lv.eta), p.mR
+	w.xiT = -w.vL / p.f
+	w.down, w.up = lv.e.down, lv.e.up
 	w.lo, w.hi = w.support()
 	return w
 }
@@ -122,22 +119,11 @@ func (w *fwave) At(xi float64) float64 {
 	case math.IsNaN(xi):
 		return 0
 	case xi < 0:
-		return w.psi0 * w.leftRatio(w.sL*(xi-w.xiT))
+		return w.psi0 * math.Exp(w.down.lnMRatio(w.vL, w.muL, w.f, -xi))
 	case xi > 1:
-		a := aiAt(w.zR0 + w.sR*(xi-1))
-		return w.psi1 * math.Exp(a.lnAi-a.zeta-w.lnAi0)
+		return w.psi1 * math.Exp(w.up.lnAiRatio(w.vR, w.muR, w.f, xi-1))
 	}
 	return w.well(xi)
-}
-
-// leftRatio returns M(z)/M(z₀) on the downhill side.
-func (w *fwave) leftRatio(z float64) float64 {
-	if z >= 0 {
-		a := airyAt(z)
-		q := a.bi*a.bi + math.Exp(-4*a.zeta)*a.ai*a.ai
-		return math.Exp(a.zeta-w.zeta0) * math.Sqrt(q/w.q0)
-	}
-	return modulusNeg(-z) * math.Exp(-w.zeta0) / math.Sqrt(w.q0)
 }
 
 // well evaluates the Ritz function in the well.
@@ -169,7 +155,7 @@ func (w *fwave) Support() (lo, hi float64) { return w.lo, w.hi }
 
 func (w *fwave) support() (lo, hi float64) {
 	const tiny = 1e-17
-	hi = 1 + tailLength(w.psi1, w.decayR, tiny)
+	hi = 1 + tailLength(w.psi1, w.up.decay, tiny)
 	// Downhill: φ ∝ M rises from the turning point to the interface, so
 	// ∫ from ξ_t to ξ is at most (ξ − ξ_t)φ(ξ)²; bisect for where that
 	// is tiny.

@@ -119,11 +119,18 @@ var (
 type Bracket struct {
 	// N is the level number, 1 for the ground level.
 	N int
-	// Lower and Upper enclose the level: Lower ≤ η_N ≤ Upper. Upper is a
-	// Rayleigh–Ritz value and is always a proven upper bound (up to
+	// Lower and Upper enclose the level: Lower ≤ η_N ≤ Upper. For
+	// infinite walls, and at zero field, Upper is a Rayleigh–Ritz value
+	// (or Kato's upper end) and is always a proven upper bound (up to
 	// floating-point rounding); Lower is proven when Bound is
-	// [tiltwell.Rigorous].
+	// [tiltwell.Rigorous]. On a finite well at f ≠ 0 both are estimates
+	// (see the package documentation).
 	Lower, Upper float64
+	// Energy is the reported level, in [Lower, Upper]: Upper for
+	// infinite walls and at zero field; on a finite well at f ≠ 0 the
+	// family's own stationary value (the fixed point of the Poly space,
+	// or the one-parameter tilt's energy).
+	Energy float64
 	// Bound is Rigorous when Lower is Temple's bound with a proven α (or
 	// the floor max(n² − |f|/2, −|f|/2 + |a_n|(|f|/π)^(2/3))) and Estimate
 	// when Temple's condition holds only with an estimated α, or Lower is
@@ -141,10 +148,11 @@ type Bracket struct {
 	GammaErr float64
 }
 
-// Level returns the bracket as a [tiltwell.Level]: Energy = Upper,
-// Err = Upper − Lower, Gamma = 0 and GammaErr.
+// Level returns the bracket as a [tiltwell.Level]: Energy,
+// Err = max(Upper − Energy, Energy − Lower) (Upper − Lower when Energy is
+// Upper), Gamma = 0 and GammaErr.
 func (b Bracket) Level() tiltwell.Level {
-	return tiltwell.Level{N: b.N, Energy: b.Upper, Err: b.Upper - b.Lower, Bound: b.Bound, GammaErr: b.GammaErr}
+	return tiltwell.Level{N: b.N, Energy: b.Energy, Err: max(b.Upper-b.Energy, b.Energy-b.Lower), Bound: b.Bound, GammaErr: b.GammaErr}
 }
 
 // Contains reports whether Lower ≤ eta ≤ Upper.
@@ -412,6 +420,7 @@ func (s Solver) brackets(sp *space, dst []Bracket, f float64, k int, warm []Brac
 				}
 			}
 		}
+		b.Energy = b.Upper
 		dst[n-1] = b
 		alphaRig2 = alphaRig
 		alphaRig, alphaEst = fl, math.Max(fl, b.Lower)
@@ -491,6 +500,7 @@ func (sp *space) tiltBracket(f, guess float64) Bracket {
 			break
 		}
 	}
+	br.Energy = br.Upper
 	return br
 }
 
