@@ -32,8 +32,10 @@ import (
 //   - block opens the levels of NAME at the reduced field F (float64
 //     text): K rows follow, levels 1..K; MORE says whether level K+1
 //     exists: "none" (K is [Count]), "cap" (more levels, beyond the
-//     generator's cap) or "unknown" (level K+1 is out of the reference's
-//     range).
+//     generator's cap of 10) or "unknown" (level K+1, or the count, is out
+//     of the reference's range). Under a field the uphill side confines
+//     levels above its band edge too (triangular states, thousands of
+//     them at weak field), so "cap" is common for asymmetric wells.
 //   - row gives level N: ETA is η_r and GAMMA is Γ, both in E₁ to 36
 //     significant digits (ETA in Go 'e' format; GAMMA as d.ddd…e±X with a
 //     decimal exponent of any size, or 0 for a bound state); ROUTE is
@@ -220,8 +222,12 @@ func levelsOf(s Structure, f float64) (Block, error) {
 		}
 		b.lines = append(b.lines, FormatRow(s.Name, f, r))
 	}
-	b.More = "cap"
-	if k, err := Count(s.Layers, s.Ref, f); err == nil && k == levelCap {
+	switch k, err := Count(s.Layers, s.Ref, f); {
+	case err != nil:
+		b.More = "unknown"
+	case k > levelCap:
+		b.More = "cap"
+	default:
 		b.More = "none"
 	}
 	return b, nil
