@@ -58,6 +58,13 @@ type Solver struct {
 	// is defaulted to 2. Other values make every method return an error
 	// wrapping [tiltwell.ErrUnits].
 	Order int
+	// Stack is the layer structure. The zero value is the well with
+	// infinitely high walls, described above. A single finite well (three
+	// layers, from [tiltwell.FiniteWell] or [tiltwell.AsymmetricWell]) is
+	// solved as described in the package documentation, section "Finite
+	// wells"; other stacks make every method return an error wrapping
+	// [errors.ErrUnsupported].
+	Stack tiltwell.Stack
 }
 
 var _ tiltwell.WaveSolver = Solver{}
@@ -94,6 +101,9 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 	}
 	if err := tiltwell.CheckArgs("perturb", f, k, MaxLevels, MaxField); err != nil {
 		return dst, err
+	}
+	if !s.Stack.Infinite() {
+		return s.levelsStack(dst, f, k, p)
 	}
 	af, _ := tiltwell.Fold(f)
 	pw := powers(af)
@@ -142,6 +152,9 @@ func (s Solver) Limit(n int) (float64, error) {
 	if err := tiltwell.CheckArgs("perturb", 0, n, MaxLevels, 0); err != nil {
 		return 0, err
 	}
+	if !s.Stack.Infinite() {
+		return s.limitStack(n, p)
+	}
 	return entryOf(n).lim[p-1], nil
 }
 
@@ -171,6 +184,9 @@ func (s Solver) Dipole(f float64, n int) (d, derr float64, err error) {
 	}
 	if err := tiltwell.CheckArgs("perturb", f, n, MaxLevels, MaxField); err != nil {
 		return 0, 0, err
+	}
+	if !s.Stack.Infinite() {
+		return s.dipoleStack(f, n)
 	}
 	af, mir := tiltwell.Fold(f)
 	e := entryOf(n)

@@ -35,6 +35,9 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	if err := tiltwell.CheckArgs("perturb", f, n, MaxLevels, MaxField); err != nil {
 		return nil, err
 	}
+	if !s.Stack.Infinite() {
+		return s.waveStack(f, n)
+	}
 	af, mir := tiltwell.Fold(f)
 	nf := float64(n)
 	w := wave{
