@@ -27,8 +27,13 @@ const (
 )
 
 // gammaSafety is the factor between the quasiclassical escape width and
-// the GammaErr reported for it; see [Solver].
-const gammaSafety = 3
+// the GammaErr reported for it, and gammaShift the multiple of it added to
+// the energy's error estimate for the shift of the level beyond all
+// orders of the series; see [Solver] for how they were measured.
+const (
+	gammaSafety = 2
+	gammaShift  = 1
+)
 
 // stackCacheSize is the number of stacks whose level series are kept.
 const stackCacheSize = 16
@@ -45,6 +50,10 @@ type wellLevel struct {
 	// the last two orders that do not vanish by symmetry (J−2 and J for
 	// a symmetric well, J−1 and J otherwise).
 	first int
+	// fBest is the field up to which the tail criterion of the
+	// second-order limit holds, below which best sums the series to J.
+	fBest float64
+	rml   float64 // √μ_L
 	// The downhill (left) barrier for f > 0, and the interface amplitudes
 	// φ₀(0), φ₁(0) and ‖φ₁‖² of the normalized states.
 	vl, ml      float64
@@ -154,7 +163,7 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 		panic("perturb: finite well level " + fmt.Sprint(n) + ": " + err.Error())
 	}
 	ws := g.series()
-	lv := &wellLevel{eta0: g.eta0, geom: g, vl: s.well.VL, ml: s.well.ML, first: wellOrder - 1}
+	lv := &wellLevel{eta0: g.eta0, geom: g, vl: s.well.VL, ml: s.well.ML, rml: math.Sqrt(s.well.ML), first: wellOrder - 1}
 	if s.sym {
 		lv.first = wellOrder - 2
 	}
@@ -169,7 +178,7 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 	// Orders that could not be computed (overflow in extremely shallow
 	// wells) count as unknown: the limit below becomes 0.
 	for j := ws.order + 1; j <= wellOrder; j++ {
-		lv.de[j] = math.Inf(1)
+		lv.de[j] = math.MaxFloat64
 	}
 	if len(ws.psi) > 1 {
 		lv.psi1 = ws.psi[1]
@@ -194,48 +203,104 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 			lv.gap = math.Min(lv.gap, e-g.eta0)
 		}
 	}
+	lv.fBest = bisectLog(func(f float64) bool {
+		var pw [wellOrder + 1]float64
+		wellPowers(&pw, f)
+		return lv.tail(&pw) <= wellTailFraction*lv.lead(2, &pw)
+	}, -300, math.Log10(MaxField))
 	for p := 1; p <= 2; p++ {
 		lv.lim[p-1] = lv.limit(p)
 	}
 	return lv
 }
 
-// lead returns the first neglected terms of the order-p energy at f.
-func (lv *wellLevel) lead(p int, f float64) float64 {
-	return math.Abs(lv.e[p+1])*math.Pow(f, float64(p+1)) + math.Abs(lv.e[p+2])*math.Pow(f, float64(p+2))
+// lead returns the first neglected terms of the order-p energy,
+// |E_(p+1)| f^(p+1) + |E_(p+2)| f^(p+2), for the powers pw of f.
+func (lv *wellLevel) lead(p int, pw *[wellOrder + 1]float64) float64 {
+	return math.Abs(lv.e[p+1])*pw[p+1] + math.Abs(lv.e[p+2])*pw[p+2]
 }
 
-// tail returns the largest of the last four terms, with their rounding
+// tail returns the allowance for the orders beyond J: the larger of the
+// last two terms that do not vanish by symmetry, with their rounding
 // allowance.
-func (lv *wellLevel) tail(f float64) float64 {
+func (lv *wellLevel) tail(pw *[wellOrder + 1]float64) float64 {
 	t := 0.0
 	for j := lv.first; j <= wellOrder; j++ {
-		t = math.Max(t, (math.Abs(lv.e[j])+lv.de[j])*math.Pow(f, float64(j)))
+		t = math.Max(t, (math.Abs(lv.e[j])+lv.de[j])*pw[j])
 	}
 	return t
+}
+
+// best returns the best energy the series gives at the field with powers
+// pw: the sum to order J where its last terms are small (the tail
+// criterion of the second-order limit holds), else the second-order
+// energy. The escape width and the confinement test use it.
+func (lv *wellLevel) best(pw *[wellOrder + 1]float64) float64 {
+	eta, _ := lv.energy(2, pw)
+	if pw[1] <= lv.fBest {
+		for j := wellOrder; j > 2; j-- {
+			eta += lv.e[j] * pw[j]
+		}
+	}
+	return eta
 }
 
 // limit returns the validity limit of the order-p energy (see
 // wellTailFraction).
 func (lv *wellLevel) limit(p int) float64 {
 	ok := func(f float64) bool {
-		ld := lv.lead(p, f)
-		if !(lv.tail(f) <= wellTailFraction*ld) || !(ld <= gapFraction*lv.gap) {
-			return false
-		}
 		var pw [wellOrder + 1]float64
 		wellPowers(&pw, f)
-		eta, _ := lv.energy(p, &pw)
-		gam, _, conf := lv.gamma(f, eta, math.NaN())
+		ld := lv.lead(p, &pw)
+		if !(lv.tail(&pw) <= wellTailFraction*ld) || !(ld <= gapFraction*lv.gap) {
+			return false
+		}
+		gam, _, conf := lv.gamma(f, lv.best(&pw), math.NaN())
 		return conf && gam <= wellGammaFraction*lv.gap
 	}
-	// The criteria hold below some field and fail above it; bisect
+	// These criteria hold below some field and fail above it: bisect
 	// log f between 1e-300 and MaxField.
-	lo, hi := -300.0, math.Log10(MaxField)
-	if ok(MaxField) {
-		return MaxField
+	lim := bisectLog(ok, -300, math.Log10(MaxField))
+	if lim == 0 {
+		return 0
 	}
-	if !ok(1e-300) {
+	// The neglected terms must not cancel: where they do, the error of
+	// the order-p energy passes through zero and no estimate built from
+	// their sizes can follow it. The first field below lim where
+	// |Σ_(p<j≤J) E_j f^j| < ½ Σ |E_j f^j| is looked for on a grid of 100
+	// fields per decade over the four decades below lim (the lead term
+	// dominates below) and refined by bisection.
+	dominant := func(f float64) bool {
+		var sum, abs float64
+		x := math.Pow(f, float64(p+1))
+		for j := p + 1; j <= wellOrder; j++ {
+			t := lv.e[j] * x
+			sum += t
+			abs += math.Abs(t)
+			x *= f
+		}
+		return math.Abs(sum) >= 0.5*abs
+	}
+	const perDecade = 100
+	step := math.Pow(10, 1.0/perDecade)
+	f := lim * math.Pow(10, -4)
+	for i := -4 * perDecade; i <= 0; i++ {
+		if !dominant(f) {
+			return bisectLog(dominant, math.Log10(f/step), math.Log10(f))
+		}
+		f *= step
+	}
+	return lim
+}
+
+// bisectLog returns the largest f = 10^x, x in [lo, hi], up to which ok
+// holds, assuming ok holds below some field and fails above it: 10^hi if
+// ok(10^hi), 0 if not ok(10^lo).
+func bisectLog(ok func(float64) bool, lo, hi float64) float64 {
+	if ok(math.Pow(10, hi)) {
+		return math.Pow(10, hi)
+	}
+	if !ok(math.Pow(10, lo)) {
 		return 0
 	}
 	for hi-lo > 1e-6 {
@@ -247,6 +312,16 @@ func (lv *wellLevel) limit(p int) float64 {
 		}
 	}
 	return math.Pow(10, lo)
+}
+
+// finiteOr returns x, or alt if x is NaN or infinite: an estimate built
+// from orders that overflowed (extremely shallow wells, far beyond their
+// validity limit) is reported as the largest float64.
+func finiteOr(x, alt float64) float64 {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return alt
+	}
+	return x
 }
 
 // wellPowers sets pw[j] = f^j, j = 0…J.
@@ -285,11 +360,11 @@ func (lv *wellLevel) estimate(p int, pw *[wellOrder + 1]float64, size float64) f
 			tail = math.Max(tail, (math.Abs(lv.e[j])+lv.de[j])*pw[j])
 		}
 	}
-	return math.Abs(rest) + tail + round + 8*eps*size
+	return finiteOr(math.Abs(rest)+tail+round+8*eps*size, math.MaxFloat64)
 }
 
-// gamma returns the quasiclassical escape width of the level at f > 0 and
-// energy eta through the left (downhill) barrier, the exponent S of its
+// gamma returns the quasiclassical escape width of the level at f ≥ 0 and
+// energy eta (from best) through the left (downhill) barrier, the exponent S of its
 // tunnelling factor, and whether the level is below the top of that
 // barrier at the interface (confined). See [Solver] for the formula. If d
 // is not NaN it is used as the dipole dη/df in dS/df (returned in place
@@ -302,14 +377,14 @@ func (lv *wellLevel) gamma(f, eta, d float64) (gam, s float64, confined bool) {
 	if f == 0 {
 		return 0, 0, true
 	}
-	rm := math.Sqrt(lv.ml)
-	s = 4 * math.Pi * rm * w * math.Sqrt(w) / (3 * f)
+	rm, rw := lv.rml, math.Sqrt(w)
+	s = 4 * math.Pi * rm * w * rw / (3 * f)
 	a := (lv.a0 + f*lv.a1) / math.Sqrt(1+f*f*lv.s11)
-	kappa := math.Pi * rm * math.Sqrt(w)
+	kappa := math.Pi * rm * rw
 	gam = 2 / (math.Pi * math.Pi) * a * a * kappa / lv.ml * math.Exp(-s)
 	if !math.IsNaN(d) {
 		// |dS/df| with dw/df = −½ − d.
-		s = s/f + 2*math.Pi*rm*math.Sqrt(w)*math.Abs(0.5+d)/f
+		s = s/f + 2*math.Pi*rm*rw*math.Abs(0.5+d)/f
 	}
 	return gam, s, true
 }
@@ -338,13 +413,13 @@ func (s Solver) levelsStack(dst []tiltwell.Level, f float64, k, p int) ([]tiltwe
 		eta, size := lv.energy(p, &pw)
 		l := tiltwell.Level{N: n, Energy: eta, Err: 8 * eps * size, Bound: tiltwell.Estimate}
 		if af > 0 {
-			gam, _, conf := lv.gamma(af, eta, math.NaN())
+			gam, _, conf := lv.gamma(af, lv.best(&pw), math.NaN())
 			if !conf {
 				why = fmt.Sprintf("level %d is above the downhill barrier at the interface", n)
 				break
 			}
 			l.GammaErr = gammaSafety * gam
-			l.Err = lv.estimate(p, &pw, size) + l.GammaErr
+			l.Err = lv.estimate(p, &pw, size) + gammaShift*gam
 		}
 		lim = math.Min(lim, lv.lim[p-1])
 		dst = append(dst, l)
@@ -407,8 +482,7 @@ func (s Solver) dipoleStack(f float64, n int) (d, derr float64, err error) {
 	if af > 0 {
 		var pw [wellOrder + 1]float64
 		wellPowers(&pw, af)
-		eta, _ := lv.energy(2, &pw)
-		gam, ds, conf := lv.gamma(af, eta, d)
+		gam, ds, conf := lv.gamma(af, lv.best(&pw), d)
 		if !conf {
 			return 0, 0, &tiltwell.ConfinedError{Method: "perturb", F: f, Asked: n, Confined: n - 1,
 				Why: fmt.Sprintf("level %d is above the downhill barrier at the interface", n)}
@@ -423,7 +497,11 @@ func (s Solver) dipoleStack(f float64, n int) (d, derr float64, err error) {
 				tail = math.Max(tail, float64(j)*(math.Abs(lv.e[j])+lv.de[j])*pw[j-1])
 			}
 		}
-		derr = math.Abs(rest) + tail + round + 8*eps*(math.Abs(lv.e[1])+math.Abs(2*lv.e[2]*af)) + gammaSafety*gam*ds
+		derr = math.Abs(rest) + tail + round + 8*eps*(math.Abs(lv.e[1])+math.Abs(2*lv.e[2]*af))
+		if gam > 0 {
+			derr += gammaShift * gam * ds
+		}
+		derr = finiteOr(derr, math.MaxFloat64)
 	} else {
 		derr = 8 * eps * math.Abs(d)
 	}
