@@ -44,7 +44,7 @@ type wellLevel struct {
 	eta0 float64
 	e    [wellOrder + 1]float64 // E_j, E[0] = 0
 	de   [wellOrder + 1]float64 // rounding allowance δE_j
-	lim  [2]float64             // validity limit for Order 1 and 2
+	lim  [3]float64             // validity limits: Order 1, Order 2, dipole
 	gap  float64                // distance to the nearest other level or the barrier top
 	// first is the lowest order of the allowance for the orders beyond J:
 	// the last two orders that do not vanish by symmetry (J−2 and J for
@@ -211,6 +211,7 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 	for p := 1; p <= 2; p++ {
 		lv.lim[p-1] = lv.limit(p)
 	}
+	lv.lim[2] = lv.dipoleLimit()
 	return lv
 }
 
@@ -261,32 +262,69 @@ func (lv *wellLevel) limit(p int) float64 {
 	// These criteria hold below some field and fail above it: bisect
 	// log f between 1e-300 and MaxField.
 	lim := bisectLog(ok, -300, math.Log10(MaxField))
+	return lv.noCancel(lim, func(f float64) (sum, abs, allow float64) {
+		var pw [wellOrder + 1]float64
+		wellPowers(&pw, f)
+		for j := p + 1; j <= wellOrder; j++ {
+			t := lv.e[j] * pw[j]
+			sum += t
+			abs += math.Abs(t)
+		}
+		gam, _, _ := lv.gamma(f, lv.best(&pw), math.NaN())
+		return sum, abs, lv.tail(&pw) + gammaShift*gam
+	})
+}
+
+// dipoleLimit returns the validity limit of the dipole: the second-order
+// limit, lowered where the neglected terms of dη/df cancel (see noCancel).
+func (lv *wellLevel) dipoleLimit() float64 {
+	return lv.noCancel(lv.lim[1], func(f float64) (sum, abs, allow float64) {
+		var pw [wellOrder + 1]float64
+		wellPowers(&pw, f)
+		var tail float64
+		for j := 3; j <= wellOrder; j++ {
+			t := float64(j) * lv.e[j] * pw[j-1]
+			sum += t
+			abs += math.Abs(t)
+			if j >= lv.first {
+				tail = math.Max(tail, float64(j)*(math.Abs(lv.e[j])+lv.de[j])*pw[j-1])
+			}
+		}
+		d := lv.e[1] + 2*lv.e[2]*f
+		gam, ds, _ := lv.gamma(f, lv.best(&pw), d)
+		if gam > 0 {
+			tail += gammaShift * gam * ds
+		}
+		return sum, abs, tail
+	})
+}
+
+// noCancel returns the field up to which the neglected terms, summed by
+// terms(f) into sum and abs = Σ|terms| with the allowance allow for what
+// the series does not know (the orders beyond J and the escape width), do
+// not cancel while the allowance is more than 0.1% of them, searching
+// below lim. Where |sum| < ½ abs the error of the result passes through
+// zero, and near that zero no estimate built from the sizes of the terms
+// can stay within 10× of it; the range of fields where it fails is about
+// allow/(10 abs) of f wide, so the zeros where the allowance is below 0.1%
+// of the terms (ranges narrower than 1e-4 of f, met at weak field) are
+// accepted, and the first other one ends the range of validity. It is
+// looked for on a grid of 100 fields per decade over the four decades
+// below lim (the lead term dominates below) and refined by bisection.
+func (lv *wellLevel) noCancel(lim float64, terms func(f float64) (sum, abs, allow float64)) float64 {
 	if lim == 0 {
 		return 0
 	}
-	// The neglected terms must not cancel: where they do, the error of
-	// the order-p energy passes through zero and no estimate built from
-	// their sizes can follow it. The first field below lim where
-	// |Σ_(p<j≤J) E_j f^j| < ½ Σ |E_j f^j| is looked for on a grid of 100
-	// fields per decade over the four decades below lim (the lead term
-	// dominates below) and refined by bisection.
-	dominant := func(f float64) bool {
-		var sum, abs float64
-		x := math.Pow(f, float64(p+1))
-		for j := p + 1; j <= wellOrder; j++ {
-			t := lv.e[j] * x
-			sum += t
-			abs += math.Abs(t)
-			x *= f
-		}
-		return math.Abs(sum) >= 0.5*abs
+	ok := func(f float64) bool {
+		sum, abs, allow := terms(f)
+		return math.Abs(sum) >= 0.5*abs || allow <= 1e-3*abs
 	}
 	const perDecade = 100
 	step := math.Pow(10, 1.0/perDecade)
 	f := lim * math.Pow(10, -4)
 	for i := -4 * perDecade; i <= 0; i++ {
-		if !dominant(f) {
-			return bisectLog(dominant, math.Log10(f/step), math.Log10(f))
+		if !ok(f) {
+			return bisectLog(ok, math.Log10(f/step), math.Log10(f))
 		}
 		f *= step
 	}
@@ -508,8 +546,8 @@ func (s Solver) dipoleStack(f float64, n int) (d, derr float64, err error) {
 	if mir {
 		d = -d
 	}
-	if af > lv.lim[1] {
-		return d, derr, &tiltwell.RangeError{Method: "perturb", F: f, Limit: lv.lim[1]}
+	if af > lv.lim[2] {
+		return d, derr, &tiltwell.RangeError{Method: "perturb", F: f, Limit: lv.lim[2]}
 	}
 	return d, derr, nil
 }
