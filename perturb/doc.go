@@ -191,7 +191,7 @@
 //     bound level or to the lower barrier top;
 //   - Γ_q reaches 1% of that distance, or the level reaches the top of the
 //     downhill barrier at the interface;
-//   - the neglected terms cancel (|Σ| < ½ Σ|terms|) while the allowance for
+//   - the neglected terms cancel (|Σ| < ¼ Σ|terms|) while the allowance for
 //     what the series does not know is more than 0.1% of them: the error
 //     passes through zero there over too wide a range of fields for an
 //     estimate to follow it.

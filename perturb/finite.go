@@ -32,8 +32,13 @@ const (
 // orders of the series; see [Solver] for how they were measured.
 const (
 	gammaSafety = 2
-	gammaShift  = 1
+	gammaShift  = 1.5
 )
+
+// ampOrder is the order of the interface amplitude used in the escape
+// width (the state to order 4, as the energy to order 10 needs by Wigner's
+// 2n+1 rule).
+const ampOrder = 4
 
 // stackCacheSize is the number of stacks whose level series are kept.
 const stackCacheSize = 16
@@ -54,10 +59,14 @@ type wellLevel struct {
 	// second-order limit holds, below which best sums the series to J.
 	fBest float64
 	rml   float64 // √μ_L
-	// The downhill (left) barrier for f > 0, and the interface amplitudes
-	// φ₀(0), φ₁(0) and ‖φ₁‖² of the normalized states.
-	vl, ml      float64
-	a0, a1, s11 float64
+	// The downhill (left) barrier for f > 0; the series of the state's
+	// amplitude at the interface, Σ amp[j] f^j, and of its norm,
+	// Σ nrm[m] f^m (ψ₀ normalized, intermediate normalisation), to
+	// ampOrder; and ‖φ₁‖² of the normalized first-order state.
+	vl, ml float64
+	amp    [ampOrder + 1]float64
+	nrm    [2*ampOrder + 1]float64
+	s11    float64
 	geom        wellGeom
 	psi1        pieces // ψ₁ with ψ₀ = sin θ in the well (not normalized)
 }
@@ -184,11 +193,16 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 		lv.psi1 = ws.psi[1]
 	}
 	rn := math.Sqrt(g.n0)
-	lv.a0 = g.sl / rn
-	lv.a1 = at0(lv.psi1.L) / rn
-	lv.s11 = g.inner(&lv.psi1, &lv.psi1, false) / g.n0
-	if !(lv.s11 >= 0) || math.IsInf(lv.s11, 0) {
-		lv.s11 = 0
+	ma := min(ws.order, ampOrder)
+	for i := 0; i <= ma; i++ {
+		lv.amp[i] = finiteOr(at0(ws.psi[i].L)/rn, 0)
+		for j := 0; j <= ma; j++ {
+			lv.nrm[i+j] += finiteOr(g.inner(&ws.psi[i], &ws.psi[j], false)/g.n0, 0)
+		}
+	}
+	lv.s11 = lv.nrm[2]
+	if len(ws.psi) > 1 {
+		lv.s11 = finiteOr(g.inner(&ws.psi[1], &ws.psi[1], false)/g.n0, 0)
 	}
 	// Distance to the nearest other level or to the continuum.
 	top := math.Min(s.well.VL, s.well.VR)
@@ -206,7 +220,7 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 	lv.fBest = bisectLog(func(f float64) bool {
 		var pw [wellOrder + 1]float64
 		wellPowers(&pw, f)
-		return lv.tail(&pw) <= wellTailFraction*lv.lead(2, &pw)
+		return lv.tail(&pw) <= lv.lead(2, &pw)
 	}, -300, math.Log10(MaxField))
 	for p := 1; p <= 2; p++ {
 		lv.lim[p-1] = lv.limit(p)
@@ -303,7 +317,7 @@ func (lv *wellLevel) dipoleLimit() float64 {
 // terms(f) into sum and abs = Σ|terms| with the allowance allow for what
 // the series does not know (the orders beyond J and the escape width), do
 // not cancel while the allowance is more than 0.1% of them, searching
-// below lim. Where |sum| < ½ abs the error of the result passes through
+// below lim. Where |sum| < ¼ abs the error of the result approaches
 // zero, and near that zero no estimate built from the sizes of the terms
 // can stay within 10× of it; the range of fields where it fails is about
 // allow/(10 abs) of f wide, so the zeros where the allowance is below 0.1%
@@ -317,7 +331,7 @@ func (lv *wellLevel) noCancel(lim float64, terms func(f float64) (sum, abs, allo
 	}
 	ok := func(f float64) bool {
 		sum, abs, allow := terms(f)
-		return math.Abs(sum) >= 0.5*abs || allow <= 1e-3*abs
+		return math.Abs(sum) >= 0.25*abs || allow <= 1e-3*abs
 	}
 	const perDecade = 100
 	step := math.Pow(10, 1.0/perDecade)
@@ -417,7 +431,16 @@ func (lv *wellLevel) gamma(f, eta, d float64) (gam, s float64, confined bool) {
 	}
 	rm, rw := lv.rml, math.Sqrt(w)
 	s = 4 * math.Pi * rm * w * rw / (3 * f)
-	a := (lv.a0 + f*lv.a1) / math.Sqrt(1+f*f*lv.s11)
+	var a, nrm float64
+	for j := ampOrder; j >= 0; j-- {
+		a = a*f + lv.amp[j]
+	}
+	for m := 2 * ampOrder; m >= 0; m-- {
+		nrm = nrm*f + lv.nrm[m]
+	}
+	if nrm > 0 {
+		a /= math.Sqrt(nrm)
+	}
 	kappa := math.Pi * rm * rw
 	gam = 2 / (math.Pi * math.Pi) * a * a * kappa / lv.ml * math.Exp(-s)
 	if !math.IsNaN(d) {
