@@ -196,8 +196,9 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 	ma := min(ws.order, ampOrder)
 	for i := 0; i <= ma; i++ {
 		lv.amp[i] = finiteOr(at0(ws.psi[i].L)/rn, 0)
-		for j := 0; j <= ma; j++ {
-			lv.nrm[i+j] += finiteOr(g.inner(&ws.psi[i], &ws.psi[j], false)/g.n0, 0)
+		lv.nrm[2*i] += finiteOr(g.inner(&ws.psi[i], &ws.psi[i], false)/g.n0, 0)
+		for j := i + 1; j <= ma; j++ {
+			lv.nrm[i+j] += 2 * finiteOr(g.inner(&ws.psi[i], &ws.psi[j], false)/g.n0, 0)
 		}
 	}
 	lv.s11 = lv.nrm[2]
@@ -226,6 +227,7 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 		lv.lim[p-1] = lv.limit(p)
 	}
 	lv.lim[2] = lv.dipoleLimit()
+	lv.geom.nodes = nil // only the series needs them
 	return lv
 }
 
@@ -323,8 +325,9 @@ func (lv *wellLevel) dipoleLimit() float64 {
 // allow/(10 abs) of f wide, so the zeros where the allowance is below 0.1%
 // of the terms (ranges narrower than 1e-4 of f, met at weak field) are
 // accepted, and the first other one ends the range of validity. It is
-// looked for on a grid of 100 fields per decade over the four decades
-// below lim (the lead term dominates below) and refined by bisection.
+// looked for on a grid of 50 fields per decade over the two decades below
+// lim (below, the allowance is far below 0.1% of the terms) and refined
+// by bisection.
 func (lv *wellLevel) noCancel(lim float64, terms func(f float64) (sum, abs, allow float64)) float64 {
 	if lim == 0 {
 		return 0
@@ -333,10 +336,10 @@ func (lv *wellLevel) noCancel(lim float64, terms func(f float64) (sum, abs, allo
 		sum, abs, allow := terms(f)
 		return math.Abs(sum) >= 0.25*abs || allow <= 1e-3*abs
 	}
-	const perDecade = 100
+	const perDecade, decades = 50, 2
 	step := math.Pow(10, 1.0/perDecade)
-	f := lim * math.Pow(10, -4)
-	for i := -4 * perDecade; i <= 0; i++ {
+	f := lim * math.Pow(10, -decades)
+	for i := -decades * perDecade; i <= 0; i++ {
 		if !ok(f) {
 			return bisectLog(ok, math.Log10(f/step), math.Log10(f))
 		}
@@ -355,7 +358,7 @@ func bisectLog(ok func(float64) bool, lo, hi float64) float64 {
 	if !ok(math.Pow(10, lo)) {
 		return 0
 	}
-	for hi-lo > 1e-6 {
+	for hi-lo > 1e-5 {
 		mid := 0.5 * (lo + hi)
 		if ok(math.Pow(10, mid)) {
 			lo = mid

@@ -70,6 +70,14 @@ type wellGeom struct {
 	n0       float64 // N₀ = ⟨ψ₀|ψ₀⟩
 	state    squarewell.State
 	vl, vr   float64 // barrier heights
+	// nodes holds sin θ and cos θ at the Gauss–Legendre nodes, built on
+	// first use by the well integrals (nil until then).
+	nodes *nodeTrig
+}
+
+// nodeTrig holds sin θ and cos θ at the nodes of each rule of glRules.
+type nodeTrig struct {
+	s, c [len(glSizes)][]float64
 }
 
 // newWellGeom returns the geometry of level n of w.
@@ -262,18 +270,59 @@ func (g *wellGeom) trigInt(p poly) (ic, is float64) {
 }
 
 // inner returns ⟨a|b⟩, or ⟨a|V|b⟩ with V = ξ − ½ if withV, over the line.
+// The barrier integrals are closed forms. In the well, with K = 2k above
+// twice the degree of the products the closed form of trigInt is used;
+// below, the Gauss–Legendre rule of at least 12 + (degree + K)/2 points
+// (exact to rounding, see trigInt) applied to ψ_a ψ_b directly.
 func (g *wellGeom) inner(a, b *pieces, withV bool) float64 {
 	la, pa, qa, ra := a.L, a.P, a.Q, a.R
 	if withV {
 		la, pa, qa, ra = shiftMul(la, -0.5), pa.mulU(), qa.mulU(), shiftMul(ra, 0.5)
 	}
 	s := leftInt(mul(la, b.L), 2*g.kl) + rightInt(mul(ra, b.R), 2*g.kr)
-	pp, qq := mul(pa, b.P), mul(qa, b.Q)
-	pq := axpy(1, mul(pa, b.Q), mul(qa, b.P))
-	ic, _ := g.trigInt(axpy(-1, qq, pp))
-	_, is := g.trigInt(pq)
-	s += 0.5*intOne(axpy(1, pp, qq)) + 0.5*ic + 0.5*is
+	deg := max(len(pa)+len(b.P), len(qa)+len(b.Q), len(pa)+len(b.Q), len(qa)+len(b.P)) - 2
+	K := 2 * g.k
+	if K > 2*float64(deg+2) {
+		pp, qq := mul(pa, b.P), mul(qa, b.Q)
+		pq := axpy(1, mul(pa, b.Q), mul(qa, b.P))
+		ic, _ := g.trigInt(axpy(-1, qq, pp))
+		_, is := g.trigInt(pq)
+		return s + 0.5*intOne(axpy(1, pp, qq)) + 0.5*ic + 0.5*is
+	}
+	need := 12 + (float64(deg+1)+K)/2
+	rules := glRules()
+	ri := len(rules) - 1
+	for i, n := range glSizes {
+		if float64(n) >= need {
+			ri = i
+			break
+		}
+	}
+	sn, cs := g.nodeValues(ri)
+	r := &rules[ri]
+	for i, u := range r.x {
+		va := pa.eval(u)*cs[i] + qa.eval(u)*sn[i]
+		vb := b.P.eval(u)*cs[i] + b.Q.eval(u)*sn[i]
+		s += r.w[i] * va * vb
+	}
 	return s
+}
+
+// nodeValues returns sin θ and cos θ at the nodes of rule ri.
+func (g *wellGeom) nodeValues(ri int) (sn, cs []float64) {
+	if g.nodes == nil {
+		g.nodes = new(nodeTrig)
+	}
+	nt := g.nodes
+	if nt.s[ri] == nil {
+		rules := glRules()
+		r := &rules[ri]
+		nt.s[ri], nt.c[ri] = make([]float64, len(r.x)), make([]float64, len(r.x))
+		for i, u := range r.x {
+			nt.s[ri][i], nt.c[ri][i] = math.Sincos(g.k*u + g.th0)
+		}
+	}
+	return nt.s[ri], nt.c[ri]
 }
 
 // absProjection returns a bound on ∫|ψ₀ V p| over the line.
@@ -331,14 +380,21 @@ func (g *wellGeom) wellAt(p *pieces, u, s, c float64) (v, d float64) {
 func (g *wellGeom) solveWell(A, B poly) (P, Q poly) {
 	k := g.k
 	inv4k2 := 1 / (4 * k * k)
-	gp := axpy(1/(2*k), A, axpy(inv4k2, B.deriv(), nil))
-	q := gp
+	// q = Σ_m (−1/(4k²))^m D^(2m) (A/(2k) + B′/(4k²)), in place.
+	q := make(poly, max(len(A), len(B)-1))
+	addTo(&q, 1/(2*k), A)
+	addTo(&q, inv4k2, B.deriv())
+	buf := make(poly, len(q))
+	d := q
 	scale := 1.0
-	for d := gp.deriv().deriv(); len(d) > 0; d = d.deriv().deriv() {
+	for len(d) > 2 {
+		d = derivInto(buf, derivInto(buf, d))
 		scale *= -inv4k2
-		q = axpy(scale, d, q)
+		addTo(&q, scale, d)
 	}
-	pp := axpy(1/(2*k), q.deriv(), axpy(-1/(2*k), B, nil))
+	pp := make(poly, max(len(q)-1, len(B)))
+	addTo(&pp, 1/(2*k), q.deriv())
+	addTo(&pp, -1/(2*k), B)
 	return pp.integ(), q.integ()
 }
 
@@ -347,13 +403,43 @@ func (g *wellGeom) solveWell(A, B poly) (P, Q poly) {
 // (t = x) and −1 on the right (t = y).
 func solveBarrier(S poly, kappa, sigma float64) poly {
 	// q′ + 2σκ q = S:  q = Σ_m (−σ)^m S^(m) / (2κ)^(m+1) · σ.
-	var q poly
+	q := make(poly, len(S))
+	buf := make(poly, len(S))
 	t := sigma / (2 * kappa)
-	for d := S; len(d) > 0; d = d.deriv() {
-		q = axpy(t, d, q)
+	for d := S; len(d) > 0; d = derivInto(buf, d) {
+		addTo(&q, t, d)
 		t *= -sigma / (2 * kappa)
 	}
 	return q.integ()
+}
+
+// addTo adds a·x to *dst, growing it to the length of x if needed.
+func addTo(dst *poly, a float64, x poly) {
+	if len(x) > len(*dst) {
+		*dst = append(*dst, make(poly, len(x)-len(*dst))...)
+	}
+	d := *dst
+	for i, c := range x {
+		d[i] = a*c + d[i]
+	}
+}
+
+// derivInto writes p′ into buf (which may be p itself) and returns it.
+func derivInto(buf, p poly) poly {
+	if len(p) <= 1 {
+		return buf[:0]
+	}
+	for i := 1; i < len(p); i++ {
+		buf[i-1] = float64(i) * p[i]
+	}
+	return buf[:len(p)-1]
+}
+
+// scalePoly multiplies p by a in place.
+func scalePoly(p poly, a float64) {
+	for i := range p {
+		p[i] *= a
+	}
 }
 
 // finite reports whether every coefficient of p is finite.
@@ -385,13 +471,15 @@ func (g *wellGeom) series() wellSeries {
 		SL, SR := shiftMul(prev.L, -0.5), shiftMul(prev.R, 0.5)
 		for i := 1; i <= j; i++ {
 			q := &ws.psi[j-i]
-			A = axpy(-ws.E[i], q.P, A)
-			B = axpy(-ws.E[i], q.Q, B)
-			SL = axpy(-ws.E[i], q.L, SL)
-			SR = axpy(-ws.E[i], q.R, SR)
+			addTo(&A, -ws.E[i], q.P)
+			addTo(&B, -ws.E[i], q.Q)
+			addTo(&SL, -ws.E[i], q.L)
+			addTo(&SR, -ws.E[i], q.R)
 		}
-		A, B = axpy(pi2, A, nil), axpy(pi2, B, nil)
-		SL, SR = axpy(pi2*g.ml, SL, nil), axpy(pi2*g.mr, SR, nil)
+		scalePoly(A, pi2)
+		scalePoly(B, pi2)
+		scalePoly(SL, pi2*g.ml)
+		scalePoly(SR, pi2*g.mr)
 		var ps pieces
 		ps.P, ps.Q = g.solveWell(A, B)
 		ps.L = solveBarrier(SL, g.kl, 1)
