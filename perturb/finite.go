@@ -67,8 +67,8 @@ type wellLevel struct {
 	amp    [ampOrder + 1]float64
 	nrm    [2*ampOrder + 1]float64
 	s11    float64
-	geom        wellGeom
-	psi1        pieces // ψ₁ with ψ₀ = sin θ in the well (not normalized)
+	geom   wellGeom
+	psi1   pieces // ψ₁ with ψ₀ = sin θ in the well (not normalized)
 }
 
 // wellSide is one orientation of a finite well: as given, or mirrored
