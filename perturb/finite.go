@@ -262,6 +262,18 @@ func (lv *wellLevel) best(pw *[wellOrder + 1]float64) float64 {
 	return eta
 }
 
+// judged returns the energy by which the confinement of the level and its
+// escape width are judged at the field f with powers pw: the best energy
+// of the series inside the validity limit lim, and the zero-field level
+// beyond it, where the series is not to be trusted (a lower level's series
+// past its limit would otherwise cut the list of levels short).
+func (lv *wellLevel) judged(pw *[wellOrder + 1]float64, f, lim float64) float64 {
+	if f > lim {
+		return lv.eta0
+	}
+	return lv.best(pw)
+}
+
 // limit returns the validity limit of the order-p energy (see
 // wellTailFraction).
 func (lv *wellLevel) limit(p int) float64 {
@@ -477,7 +489,7 @@ func (s Solver) levelsStack(dst []tiltwell.Level, f float64, k, p int) ([]tiltwe
 		eta, size := lv.energy(p, &pw)
 		l := tiltwell.Level{N: n, Energy: eta, Err: 8 * eps * size, Bound: tiltwell.Estimate}
 		if af > 0 {
-			gam, _, conf := lv.gamma(af, lv.best(&pw), math.NaN())
+			gam, _, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim[p-1]), math.NaN())
 			if !conf {
 				why = fmt.Sprintf("level %d is above the downhill barrier at the interface", n)
 				break
@@ -546,7 +558,7 @@ func (s Solver) dipoleStack(f float64, n int) (d, derr float64, err error) {
 	if af > 0 {
 		var pw [wellOrder + 1]float64
 		wellPowers(&pw, af)
-		gam, ds, conf := lv.gamma(af, lv.best(&pw), d)
+		gam, ds, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim[2]), d)
 		if !conf {
 			return 0, 0, &tiltwell.ConfinedError{Method: "perturb", F: f, Asked: n, Confined: n - 1,
 				Why: fmt.Sprintf("level %d is above the downhill barrier at the interface", n)}

@@ -265,6 +265,17 @@ func TestFiniteLimits(t *testing.T) {
 	if _, err := s.Wavefunction(-5, 2); !errors.Is(err, tiltwell.ErrLevel) {
 		t.Errorf("Wavefunction(−5, 2): %v, want ErrLevel", err)
 	}
+	// Past the limits of the low levels their series are not trusted, and
+	// neither is their confinement by it: they are judged by η₀, so a deep
+	// well still returns all 50 levels at a field inside the 50th level's
+	// limit (with a RangeError for the others).
+	deep4, _ := tiltwell.FiniteWell(1e4, 1)
+	s = Solver{Stack: deep4}
+	lim50, _ := s.Limit(50)
+	ls, err = s.Levels(nil, lim50/2, 50)
+	if len(ls) != 50 || !errors.Is(err, tiltwell.ErrOutOfRange) || errors.Is(err, tiltwell.ErrLevel) {
+		t.Errorf("v = 1e4, f = %g: %d levels, %v", lim50/2, len(ls), err)
+	}
 }
 
 // integrateLine returns ∫ g over [lo, hi] by Gauss–Legendre panels that
