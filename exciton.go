@@ -656,10 +656,9 @@ func newPairDensity(e, h *carrier, breaks []float64, la float64) pairDensity {
 		if 4*a < 40 {
 			need = max(need, 2*(int(4*(b-a)/2)+4))
 		}
-		o := pairOrder
-		for o < need && o < 512 {
-			o *= 2
-		}
+		// Even orders keep the three rules nested (2o, o and o/2
+		// intervals).
+		o := min(max(pairOrder, need+need%2), 512)
 		panels[i].order = max(panels[i].order, o)
 	}
 
@@ -759,8 +758,9 @@ func separation(a, b *carrier, u float64) float64 {
 }
 
 // ccRule returns the Clenshaw–Curtis rule with n + 1 nodes cos(πj/n),
-// j = 0..n, on [−1, 1] (n even; J. Waldvogel, BIT 46, 195 (2006), eq. 2.1
-// in its direct form), cached.
+// j = 0..n, on [−1, 1], exact for polynomials of degree n (n ≥ 1; the
+// weights in the direct form of J. Waldvogel, BIT 46, 195 (2006), §2),
+// built on first use and read-only after.
 func ccRule(n int) (x, w []float64) {
 	if r, ok := ccRules.Load(n); ok {
 		rr := r.(rule)
