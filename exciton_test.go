@@ -226,74 +226,90 @@ func TestExcitonSymmetry(t *testing.T) {
 	}
 }
 
-// bruteEnergy is an independent evaluation of the variational energy of
-// the relative motion, in Ry*, of the trial exp(−√(ρ² + β²u²)/λ) for
-// infinite-wall wavefunctions e, h in a well of width la·a*, with
-// nu = μ/μ_z (lengths in a*): the density of u = |z_e − z_h| from direct Gauss rules over the
-// wavefunctions, and at each u the plane integrals of |∂_ρF|²,
-// ν|∂_uF|², −2F²/r and F² by quadrature in ψ with ρ = u sinh ψ. It shares
-// no kernel, rule or closed form with Exciton.Binding.
-func bruteEnergy(e, h tiltwell.Wavefunction, la, lam, beta, nu float64) float64 {
+// brute is an independent evaluation of the variational energy of the
+// relative motion, in Ry*, for infinite-wall wavefunctions in a well of
+// width la·a*, with nu = μ/μ_z (lengths in a*), of the trial
+//
+//	F = exp(−√(ρ² + β²u²)/λ − γ|u|),
+//
+// which for γ = 0 is Binding's two-parameter trial and for γ ≠ 0 a richer
+// one. The density of u = |z_e − z_h| comes from direct Gauss rules over
+// the wavefunctions, and at each u the plane integrals of |∂_ρF|²,
+// ν|∂_uF|², −2F²/r and F² from quadrature in ψ with ρ = u sinh ψ. It
+// shares no kernel, rule or closed form with Exciton.Binding.
+type brute struct {
+	la, nu float64
+	u, cw  []float64 // u in a*, and Gauss weight × density of |ξ_e − ξ_h|
+	order  int       // of the ψ panels
+}
+
+// newBrute tabulates the density of |ξ_e − ξ_h| on geometric Gauss panels
+// [2^(k−1), 2^k] of u down to 2^-14, with uOrder nodes each; psiOrder is
+// the order of the plane quadrature.
+func newBrute(e, h tiltwell.Wavefunction, la, nu float64, uOrder, psiOrder int) brute {
+	b := brute{la: la, nu: nu, order: psiOrder}
 	xs, ws := make([]float64, 48), make([]float64, 48)
-	cs := func(u float64) float64 {
-		quad.Legendre{}.FixedLocations(xs, ws, 0, 1-u)
-		s := 0.0
-		for i, y := range xs {
-			a, b := e.At(y+u)*h.At(y), e.At(y)*h.At(y+u)
-			s += ws[i] * (a*a + b*b)
+	ux, uw := make([]float64, uOrder), make([]float64, uOrder)
+	for k := 0; k <= 14; k++ {
+		lo, hi := math.Ldexp(1, -k-1), math.Ldexp(1, -k)
+		if k == 14 {
+			lo = 0
 		}
-		return s
+		quad.Legendre{}.FixedLocations(ux, uw, lo, hi)
+		for i, u := range ux {
+			quad.Legendre{}.FixedLocations(xs, ws, 0, 1-u)
+			c := 0.0
+			for j, y := range xs {
+				p, q := e.At(y+u)*h.At(y), e.At(y)*h.At(y+u)
+				c += ws[j] * (p*p + q*q)
+			}
+			b.u = append(b.u, u*la)
+			b.cw = append(b.cw, uw[i]*c)
+		}
 	}
-	px, pw := make([]float64, 20), make([]float64, 20)
-	plane := func(u float64) (n, tp, tz, v float64) {
-		ua := u * la
+	return b
+}
+
+func (b brute) energy(lam, beta, gamma float64) float64 {
+	px, pw := make([]float64, b.order), make([]float64, b.order)
+	var sn, st, sv float64
+	for i, ua := range b.u {
+		var n, tp, tz, v float64
 		top := math.Asinh(math.Sqrt((beta+40*lam/ua)*(beta+40*lam/ua) - beta*beta))
 		step := 0.25
 		if beta > 0 && beta < step {
 			step = beta / 64
 		}
+		g := math.Exp(-2 * gamma * ua)
 		for lo := 0.0; lo < top; {
 			hi := lo + step
 			step = min(2*step, 0.25)
 			quad.Legendre{}.FixedLocations(px, pw, lo, hi)
-			for i, psi := range px {
+			for j, psi := range px {
 				sh, ch := math.Sinh(psi), math.Cosh(psi)
 				rho := ua * sh
 				s := ua * math.Sqrt(sh*sh+beta*beta)
-				f2 := math.Exp(-2 * s / lam)
-				jac := 2 * math.Pi * rho * ua * ch * pw[i] // 2πρ dρ
+				f2 := math.Exp(-2*s/lam) * g
+				jac := 2 * math.Pi * rho * ua * ch * pw[j] // 2πρ dρ
+				dr := rho / (s * lam)
+				du := beta*beta*ua/(s*lam) + gamma
 				n += jac * f2
-				tp += jac * f2 * (rho / (s * lam)) * (rho / (s * lam))
-				tz += jac * f2 * (beta * beta * ua / (s * lam)) * (beta * beta * ua / (s * lam))
-				v += 2 * math.Pi * rho * f2 * pw[i] // 2πρ dρ/√(ρ² + u²) = 2πρ dψ
+				tp += jac * f2 * dr * dr
+				tz += jac * f2 * du * du
+				v += 2 * math.Pi * rho * f2 * pw[j] // 2πρ dρ/√(ρ² + u²) = 2πρ dψ
 			}
 			lo = hi
 		}
-		return n, tp, tz, v
-	}
-	// u over [0, 1] in geometric Gauss panels [2^(k−1), 2^k], down to 2^-14.
-	ux, uw := make([]float64, 16), make([]float64, 16)
-	var sn, st, sv float64
-	for k := 0; k <= 14; k++ {
-		a, b := math.Ldexp(1, -k-1), math.Ldexp(1, -k)
-		if k == 14 {
-			a = 0
-		}
-		quad.Legendre{}.FixedLocations(ux, uw, a, b)
-		for i, u := range ux {
-			c := cs(u) * uw[i]
-			n, tp, tz, v := plane(u)
-			sn += c * n
-			st += c * (tp + nu*tz)
-			sv += c * v
-		}
+		sn += b.cw[i] * n
+		st += b.cw[i] * (tp + b.nu*tz)
+		sv += b.cw[i] * v
 	}
 	return (st - 2*sv) / sn
 }
 
 // The energies Binding reports are those of its trial functions at the
 // parameters it reports, to within Numerical, and those parameters are a
-// local minimum: checked against the independent quadrature bruteEnergy.
+// local minimum: checked against the independent quadrature brute.
 // Measured: differences 2e-15 to 1e-14 relative, Numerical 1e-14 to
 // 8e-14.
 func TestExcitonBruteForce(t *testing.T) {
@@ -317,8 +333,9 @@ func TestExcitonBruteForce(t *testing.T) {
 		ry, an := x.Rydberg(), x.BohrRadius()
 		la, nu := x.Width*1e9/an, x.Reduced/x.Normal
 		lam, beta := b.Radius/an, b.Anisotropy
-		e2 := bruteEnergy(c.e, c.h, la, lam, beta, nu)
-		e1 := bruteEnergy(c.e, c.h, la, b.OneParameterRadius/an, 0, nu)
+		br := newBrute(c.e, c.h, la, nu, 16, 20)
+		e2 := br.energy(lam, beta, 0)
+		e1 := br.energy(b.OneParameterRadius/an, 0, 0)
 		// The independent quadrature is good to a few 1e-15; Numerical
 		// must cover the difference.
 		if d := math.Abs(e2 + b.Energy/ry); d > b.Numerical/ry+5e-15*math.Abs(e2) {
@@ -333,13 +350,124 @@ func TestExcitonBruteForce(t *testing.T) {
 			if nb < 0 || nb > 1 {
 				continue
 			}
-			if en := bruteEnergy(c.e, c.h, la, lam*d[0], nb, nu); en < e2-1e-10*math.Abs(e2) {
+			if en := br.energy(lam*d[0], nb, 0); en < e2-1e-10*math.Abs(e2) {
 				t.Errorf("%s: (λ, β) = (%g, %g) gives %.12f Ry*, below the reported optimum (%g, %g) at %.12f", c.name, lam*d[0], nb, en, lam, beta, e2)
 			}
 		}
 		t.Logf("%s: %.12f Ry* (independent %.12f, relative difference %.1e), one parameter %.12f (%.1e), Numerical %.1e relative",
 			c.name, -b.Energy/ry, e2, math.Abs(1+b.Energy/ry/e2), -b.OneParameter/ry, math.Abs(1+b.OneParameter/ry/e1), b.Numerical/b.Energy)
 	}
+}
+
+// Err, the gain of the two-parameter trial over the one-parameter one, is
+// only an estimate of how far Energy lies below the model's binding. A
+// necessary check: a richer trial, exp(−√(ρ² + β²u²)/λ − γ|u|), optimized
+// by Nelder–Mead on the independent quadrature, must not gain more than
+// Err. Measured for the 10 nm GaAs well at zero field: it gains 0.0075 meV
+// where Err = 0.131 meV (so Err is likely pessimistic there).
+func TestExcitonErrRicherTrial(t *testing.T) {
+	t.Parallel()
+	x := gaasExciton(10e-9)
+	b, err := x.Binding(ground, ground)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ry, an := x.Rydberg(), x.BohrRadius()
+	la, nu := x.Width*1e9/an, x.Reduced/x.Normal
+	coarse := newBrute(ground, ground, la, nu, 8, 10)
+	p := nelderMead(func(p []float64) float64 {
+		s := math.Sin(p[1])
+		return coarse.energy(math.Exp(p[0]), s*s, p[2])
+	}, []float64{math.Log(b.Radius / an), math.Asin(math.Sqrt(b.Anisotropy)), 0}, []float64{0.1, 0.1, 0.2}, 200)
+	s := math.Sin(p[1])
+	e3 := newBrute(ground, ground, la, nu, 16, 20).energy(math.Exp(p[0]), s*s, p[2])
+	e2 := -b.Energy / ry
+	if e3 > e2+1e-12 {
+		t.Errorf("richer trial %.12f Ry* above the two-parameter %.12f: minimisation failed", e3, e2)
+	}
+	gain := (e2 - e3) * ry
+	if gain > b.Err {
+		t.Errorf("richer trial gains %.4g meV, more than Err = %.4g meV", gain, b.Err)
+	}
+	t.Logf("richer trial (λ = %.4f a*, β = %.4f, γ = %.4f/a*) gains %.4g meV; Err = %.4g meV", math.Exp(p[0]), s*s, p[2], gain, b.Err)
+}
+
+// nelderMead minimises f from x0 with initial steps d, for at most maxEval
+// evaluations (J. A. Nelder and R. Mead, Comput. J. 7, 308 (1965), with
+// the standard coefficients 1, 2, ½, ½).
+func nelderMead(f func([]float64) float64, x0, d []float64, maxEval int) []float64 {
+	n := len(x0)
+	pts := make([][]float64, n+1)
+	val := make([]float64, n+1)
+	for i := range pts {
+		pts[i] = append([]float64(nil), x0...)
+		if i > 0 {
+			pts[i][i-1] += d[i-1]
+		}
+		val[i] = f(pts[i])
+	}
+	evals := n + 1
+	at := func(c []float64, w []float64, t float64) []float64 {
+		p := make([]float64, n)
+		for k := range p {
+			p[k] = c[k] + t*(w[k]-c[k])
+		}
+		return p
+	}
+	for evals < maxEval {
+		// Order: best first.
+		for i := 1; i <= n; i++ {
+			for j := i; j > 0 && val[j] < val[j-1]; j-- {
+				pts[j], pts[j-1] = pts[j-1], pts[j]
+				val[j], val[j-1] = val[j-1], val[j]
+			}
+		}
+		if val[n]-val[0] < 1e-13*math.Abs(val[0]) {
+			break
+		}
+		c := make([]float64, n)
+		for i := 0; i < n; i++ {
+			for k := range c {
+				c[k] += pts[i][k] / float64(n)
+			}
+		}
+		r := at(c, pts[n], -1)
+		fr := f(r)
+		evals++
+		switch {
+		case fr < val[0]:
+			e := at(c, pts[n], -2)
+			fe := f(e)
+			evals++
+			if fe < fr {
+				pts[n], val[n] = e, fe
+			} else {
+				pts[n], val[n] = r, fr
+			}
+		case fr < val[n-1]:
+			pts[n], val[n] = r, fr
+		default:
+			k := at(c, pts[n], 0.5)
+			fk := f(k)
+			evals++
+			if fk < val[n] {
+				pts[n], val[n] = k, fk
+				continue
+			}
+			for i := 1; i <= n; i++ {
+				pts[i] = at(pts[0], pts[i], 0.5)
+				val[i] = f(pts[i])
+				evals++
+			}
+		}
+	}
+	best := 0
+	for i := range val {
+		if val[i] < val[best] {
+			best = i
+		}
+	}
+	return pts[best]
 }
 
 // finiteWell is the ground state of a symmetric finite well at zero field
