@@ -330,6 +330,8 @@ const (
 type chebPanel struct {
 	lo, hi float64
 	c      []float64
+	// bound is Σ|c_k|, at least max |φ| on the panel.
+	bound float64
 }
 
 // at evaluates the series at ξ in the panel (Clenshaw's recurrence).
@@ -344,21 +346,16 @@ func (p *chebPanel) at(xi float64) float64 {
 }
 
 // carrier is one wavefunction as contiguous Chebyshev panels over its
-// support, split at the interfaces.
+// support, split at the interfaces and where a degree would exceed
+// maxPanelDegree; kinks lists where φ or φ′ may jump: the interfaces and
+// the ends of the support where φ is cut off at a noticeable value.
 type carrier struct {
 	panels []chebPanel
+	kinks  []float64
 }
 
 func (c *carrier) lo() float64 { return c.panels[0].lo }
 func (c *carrier) hi() float64 { return c.panels[len(c.panels)-1].hi }
-
-// edges appends the panel edges, support ends included, to dst.
-func (c *carrier) edges(dst []float64) []float64 {
-	for _, p := range c.panels {
-		dst = append(dst, p.lo)
-	}
-	return append(dst, c.hi())
-}
 
 // panelAt returns the panel holding ξ (the last one at the right end).
 func (c *carrier) panelAt(xi float64) *chebPanel {
@@ -372,10 +369,18 @@ func (c *carrier) panelAt(xi float64) *chebPanel {
 
 // Chebyshev sampling: n + 1 Lobatto points, n doubling from chebMin to
 // chebMax, until the last coefficients fall below chebTol of the largest.
+// A panel of a wavefunction whose degree exceeds maxPanelDegree is halved
+// (at most maxSplits times): the cost of the separation density grows as
+// the square of the degrees.
 const (
-	chebMin = 16
-	chebMax = 1024
-	chebTol = 1e-13
+	chebMin        = 8
+	chebMax        = 1024
+	chebTol        = 1e-13
+	maxPanelDegree = 16
+	maxSplits      = 4
+	// cutoffKink is the |φ| relative to its largest value above which an
+	// end of the support counts as a kink (φ² at 1e-14 of its peak).
+	cutoffKink = 1e-7
 )
 
 // sampleCarrier builds the Chebyshev panels of w over its support split at
@@ -392,13 +397,34 @@ func sampleCarrier(name string, w Wavefunction, breaks []float64) (carrier, erro
 		}
 	}
 	edges = append(edges, hi)
-	c := carrier{panels: make([]chebPanel, 0, len(edges)-1)}
-	norm := 0.0
-	for i := 0; i+1 < len(edges); i++ {
-		p, err := chebSample(name, w, edges[i], edges[i+1])
+	var c carrier
+	// A normalized φ peaks at 1/√(hi − lo) or above: coefficients below
+	// chebTol of a tenth of that are noise, whatever the panel's own scale
+	// (a tail panel may hold only 1e-8 of the peak).
+	floor := 0.1 / math.Sqrt(hi-lo)
+	var fit func(a, b float64, splits int) error
+	fit = func(a, b float64, splits int) error {
+		p, err := chebSample(name, w, a, b, floor)
 		if err != nil {
+			return err
+		}
+		if len(p.c)-1 > maxPanelDegree && splits < maxSplits {
+			m := (a + b) / 2
+			if err := fit(a, m, splits+1); err != nil {
+				return err
+			}
+			return fit(m, b, splits+1)
+		}
+		c.panels = append(c.panels, p)
+		return nil
+	}
+	for i := 0; i+1 < len(edges); i++ {
+		if err := fit(edges[i], edges[i+1], 0); err != nil {
 			return carrier{}, err
 		}
+	}
+	norm, peak := 0.0, 0.0
+	for _, p := range c.panels {
 		// ∫φ² over the panel, exact for the series with d + 1 Gauss points.
 		r := gaussRule(len(p.c))
 		half, mid := (p.hi-p.lo)/2, (p.hi+p.lo)/2
@@ -406,7 +432,11 @@ func sampleCarrier(name string, w Wavefunction, breaks []float64) (carrier, erro
 			v := p.at(mid + half*t)
 			norm += half * r.w[q] * v * v
 		}
-		c.panels = append(c.panels, p)
+		bound := 0.0 // Σ|c_k| ≥ max |φ| on the panel
+		for _, v := range p.c {
+			bound += math.Abs(v)
+		}
+		peak = max(peak, bound)
 	}
 	if !(math.Abs(norm-1) <= excitonNormTol) {
 		return carrier{}, fmt.Errorf("tiltwell: exciton: %s wavefunction has ∫φ² dξ = %.12g over [%g, %g], want 1 within %g: %w",
@@ -414,15 +444,26 @@ func sampleCarrier(name string, w Wavefunction, breaks []float64) (carrier, erro
 	}
 	s := 1 / math.Sqrt(norm)
 	for i := range c.panels {
-		for k := range c.panels[i].c {
-			c.panels[i].c[k] *= s
+		p := &c.panels[i]
+		p.bound = 0
+		for k := range p.c {
+			p.c[k] *= s
+			p.bound += math.Abs(p.c[k])
 		}
+	}
+	c.kinks = edges[1 : len(edges)-1]
+	if first := &c.panels[0]; math.Abs(first.at(lo)) > cutoffKink*peak*s {
+		c.kinks = append([]float64{lo}, c.kinks...)
+	}
+	if last := &c.panels[len(c.panels)-1]; math.Abs(last.at(hi)) > cutoffKink*peak*s {
+		c.kinks = append(c.kinks, hi)
 	}
 	return c, nil
 }
 
-// chebSample returns the Chebyshev series of w on [lo, hi].
-func chebSample(name string, w Wavefunction, lo, hi float64) (chebPanel, error) {
+// chebSample returns the Chebyshev series of w on [lo, hi]; floor is the
+// scale below which coefficients count as noise (see chebFit).
+func chebSample(name string, w Wavefunction, lo, hi, floor float64) (chebPanel, error) {
 	var bad float64
 	var badAt float64
 	p, ok := chebFit(func(xi float64) float64 {
@@ -434,7 +475,7 @@ func chebSample(name string, w Wavefunction, lo, hi float64) (chebPanel, error) 
 			return 0
 		}
 		return v
-	}, lo, hi)
+	}, lo, hi, floor)
 	if bad != 0 || math.IsNaN(bad) {
 		return chebPanel{}, fmt.Errorf("tiltwell: exciton: %s wavefunction is %v at ξ = %g: %w", name, bad, badAt, ErrUnits)
 	}
@@ -447,9 +488,11 @@ func chebSample(name string, w Wavefunction, lo, hi float64) (chebPanel, error) 
 
 // chebFit returns the Chebyshev interpolant of f on [lo, hi] through n + 1
 // Lobatto points, n doubling from chebMin until the last coefficients fall
-// below chebTol of the largest (then trimmed), and whether that happened
-// by n = chebMax.
-func chebFit(f func(float64) float64, lo, hi float64) (chebPanel, bool) {
+// below chebTol of the largest or of floor, whichever is larger (then
+// trimmed), and whether that happened by n = chebMax. The floor keeps a
+// piece where f is at the rounding level of its larger values elsewhere
+// from chasing noise.
+func chebFit(f func(float64) float64, lo, hi, floor float64) (chebPanel, bool) {
 	half, mid := (hi-lo)/2, (hi+lo)/2
 	// vals holds f at mid + half cos(πj/n), j = 0..n, for the current n.
 	var vals []float64
@@ -472,7 +515,7 @@ func chebFit(f func(float64) float64, lo, hi float64) (chebPanel, bool) {
 		}
 		vals = next
 		c = chebCoeffs(vals, cs)
-		scale := 0.0
+		scale := floor
 		for _, v := range c {
 			scale = max(scale, math.Abs(v))
 		}
@@ -590,13 +633,13 @@ const (
 // panels end at the interfaces; la is L/a*.
 func newPairDensity(e, h *carrier, la float64) pairDensity {
 	span := max(e.hi()-h.lo(), h.hi()-e.lo())
-	// C_s is smooth between the separations at which an interface of one
-	// carrier meets one of the other. (The ends of the supports, where
-	// the wavefunctions are below 1e-8 of their peak, add kinks below the
-	// interpolation tolerance.)
-	ke := e.edges(nil)
-	kh := h.edges(nil)
-	ke, kh = ke[1:len(ke)-1], kh[1:len(kh)-1]
+	// C_s is smooth between the separations at which a kink of one
+	// carrier meets one of the other: an interface, or an end of a
+	// support where a quasi-bound level's wavefunction is cut off at its
+	// outer turning point (there φ can be 1e-2 of its peak). The ends of
+	// the supports of bound states, and the splits of long panels, add
+	// kinks below the interpolation tolerance.
+	ke, kh := e.kinks, h.kinks
 	cuts := []float64{0, span}
 	for _, a := range ke {
 		for _, b := range kh {
@@ -677,9 +720,10 @@ func newPairDensity(e, h *carrier, la float64) pairDensity {
 	cs := func(u float64) float64 { return separation(e, h, u) + separation(h, e, u) }
 	segs := make([]chebPanel, len(cuts)-1)
 	direct := make([]bool, len(cuts)-1)
+	// C_s integrates to 1 over [0, span], so it peaks at 1/span or above.
 	for i := range segs {
 		var ok bool
-		segs[i], ok = chebFit(cs, cuts[i], cuts[i+1])
+		segs[i], ok = chebFit(cs, cuts[i], cuts[i+1], 0.1/span)
 		direct[i] = !ok
 	}
 	seg := 0
@@ -719,10 +763,15 @@ func newPairDensity(e, h *carrier, la float64) pairDensity {
 	return pd
 }
 
+// separationSkip bounds the pieces of the separation density that are left
+// out: C_s integrates to 1 over at most 1e4 (the widest support), and its
+// interpolants stop at 1e-13 of 1e-5 (see newPairDensity).
+const separationSkip = 1e-20
+
 // separation returns ∫ φ_a²(y + u) φ_b²(y) dy for u ≥ 0: the density of
 // ξ_a − ξ_b at u. The integral is split where either series changes
 // panel, and each piece uses a Gauss rule exact for the product of the
-// two series.
+// two series; pieces bounded below separationSkip are left out.
 func separation(a, b *carrier, u float64) float64 {
 	ylo := max(b.lo(), a.lo()-u)
 	yhi := min(b.hi(), a.hi()-u)
@@ -751,6 +800,10 @@ func separation(a, b *carrier, u float64) float64 {
 		}
 		ym := (y0 + y1) / 2
 		pa, pb := a.panelAt(ym+u), b.panelAt(ym)
+		if m := pa.bound * pb.bound; m*m*(y1-y0) < separationSkip {
+			// Two tails: the piece is below any tolerance.
+			continue
+		}
 		r := gaussRule(len(pa.c) + len(pb.c) - 1)
 		half := (y1 - y0) / 2
 		s := 0.0
