@@ -86,12 +86,14 @@ type ExcitonBinding struct {
 	// function: 0 for the purely in-plane (two-dimensional) form, 1 for
 	// the isotropic (three-dimensional) one.
 	Anisotropy float64
-	// Density is |Ψ(r_e = r_h)|²/(overlap² ⟨Ψ|Ψ⟩) per unit area in nm⁻²,
-	// with Ψ the two-parameter trial function and overlap the
-	// electron–hole overlap ∫φ_e φ_h dξ: the oscillator strength of the
-	// exciton line is proportional to overlap² × Density. For the
-	// one-parameter form it is 2/(πλ²); in the two-dimensional limit it
-	// tends to 8/(πa*²), with a* = [Exciton.BohrRadius].
+	// Density is 1/⟨Ψ|Ψ⟩ for the two-parameter trial function Ψ (with
+	// F(0, 0) = 1 and normalized φ_e, φ_h), per unit area in nm⁻²: the
+	// in-plane density of the relative motion at zero separation. The
+	// oscillator strength of the exciton line is proportional to
+	// |∫ Ψ(z, z, ρ = 0) dz|²/⟨Ψ|Ψ⟩ = overlap² × Density, with overlap the
+	// electron–hole overlap ∫φ_e φ_h dξ. For the one-parameter form it is
+	// 2/(πλ²), the normalized exp(−ρ/λ) at ρ = 0; in the two-dimensional
+	// limit it tends to 8/(πa*²), with a* = [Exciton.BohrRadius].
 	Density float64
 	// OneParameter is the binding energy in meV from the one-parameter
 	// trial function exp(−ρ/λ) (Bastard et al.), OneParameterRadius its
@@ -117,9 +119,9 @@ func (x Exciton) BohrRadius() float64 {
 
 // Limits of the exciton calculation.
 const (
-	// excitonMinWidth and excitonMaxWidth bound L/a*: the strictly
-	// two-dimensional and three-dimensional limits are reached to better
-	// than 1e-5 and 1e-3 well inside them.
+	// excitonMinWidth and excitonMaxWidth bound L/a*: near them the
+	// two- and three-dimensional limits are reached to 2e-6 and 1e-10
+	// (measured at L/a* = 1e-6 and 9e4, infinite walls).
 	excitonMinWidth = 1e-6
 	excitonMaxWidth = 1e5
 	// excitonNormTol is the largest |∫φ² dξ − 1| accepted, the same
@@ -153,9 +155,8 @@ const (
 //
 // with 1/μ_z = 1/m_e + 1/m_h. Every term reduces to an integral over u of
 // the density C(u) = ∫φ_e²(z + u) φ_h²(z) dz of the electron–hole
-// separation against
-// closed-form kernels of u/λ and β. The Coulomb kernel is the in-plane
-// average
+// separation against closed-form kernels of u/λ and β. The Coulomb kernel
+// is the in-plane average
 //
 //	∫ d²ρ exp(−2√(ρ² + β²u²)/λ)/√(ρ² + u²) = πλ K(2|u|/λ, β),
 //	K(B, β) = ∫_{βB}^∞ t e^(−t)/√(t² + (1 − β²)B²) dt,
@@ -163,8 +164,10 @@ const (
 // which at β = 0 is B[(π/2)(H₁(B) − Y₁(B)) − 1] (Struve and Neumann
 // functions, DLMF 11.5.2 differentiated with 11.4.27 and 10.6.3) and at
 // β = 1 is e^(−B); the kinetic kernels hold E₁ (DLMF 6.2.1). The
-// minimisations over λ and β use Brent's method (R. P. Brent, Algorithms
-// for Minimization without Derivatives (1973), ch. 5).
+// one-parameter energy is minimised by Brent's method (R. P. Brent,
+// Algorithms for Minimization without Derivatives (1973), ch. 5), the
+// two-parameter one by Newton steps on finite differences in ln λ and θ,
+// β = sin²θ.
 //
 // What is proven. The variational principle makes E_X an upper bound on
 // the lowest energy of H (with the in-plane centre of mass at rest), so
@@ -178,10 +181,10 @@ const (
 //     is not needed: it is a bound for any normalized φ, with E_e, E_h
 //     their expectation values. For Energy with β > 0 it is, and the
 //     error of an approximate solver's wavefunctions enters unbounded;
-//   - the mass along z of each carrier is the reference well's (infinite
-//     walls), or lighter than in the barriers (the usual case: then the
-//     ∂_u F term, evaluated with the well's μ_z, is overestimated and the
-//     bound survives);
+//   - the mass along z of each carrier is the reference well's
+//     everywhere (infinite walls), or no heavier there than in the
+//     barriers (the usual case: the ∂_uF term, evaluated with the well's
+//     μ_z, is then overestimated and the bound survives);
 //   - the quadrature is accurate to Numerical (an estimate, from the
 //     convergence of nested rules; the tests' independent quadrature
 //     agrees with Energy to 1e-14 relative).
