@@ -335,7 +335,7 @@ func TestExcitonBruteForce(t *testing.T) {
 		ry, an := x.Rydberg(), x.BohrRadius()
 		la, nu := x.Width*1e9/an, x.Reduced/x.Normal
 		lam, beta := b.Radius/an, b.Anisotropy
-		br := newBrute(c.e, c.h, la, nu, 16, 20)
+		br := newBrute(c.e, c.h, la, nu, 12, 16)
 		e2 := br.energy(lam, beta, 0)
 		e1 := br.energy(b.OneParameterRadius/an, 0, 0)
 		// The independent quadrature is good to a few 1e-15; Numerical
@@ -376,11 +376,11 @@ func TestExcitonErrRicherTrial(t *testing.T) {
 	}
 	ry, an := x.Rydberg(), x.BohrRadius()
 	la, nu := x.Width*1e9/an, x.Reduced/x.Normal
-	coarse := newBrute(ground, ground, la, nu, 8, 10)
+	coarse := newBrute(ground, ground, la, nu, 6, 8)
 	p := nelderMead(func(p []float64) float64 {
 		s := math.Sin(p[1])
 		return coarse.energy(math.Exp(p[0]), s*s, p[2])
-	}, []float64{math.Log(b.Radius / an), math.Asin(math.Sqrt(b.Anisotropy)), 0}, []float64{0.1, 0.1, 0.2}, 200)
+	}, []float64{math.Log(b.Radius / an), math.Asin(math.Sqrt(b.Anisotropy)), 0}, []float64{0.05, 0.05, 0.1}, 120)
 	s := math.Sin(p[1])
 	e3 := newBrute(ground, ground, la, nu, 16, 20).energy(math.Exp(p[0]), s*s, p[2])
 	e2 := -b.Energy / ry
