@@ -478,7 +478,7 @@ func chebSample(name string, w Wavefunction, lo, hi, floor float64) (chebPanel, 
 			return 0
 		}
 		return v
-	}, lo, hi, floor)
+	}, lo, hi, floor, chebMax)
 	if bad != 0 || math.IsNaN(bad) {
 		return chebPanel{}, fmt.Errorf("tiltwell: exciton: %s wavefunction is %v at ξ = %g: %w", name, bad, badAt, ErrUnits)
 	}
@@ -492,15 +492,15 @@ func chebSample(name string, w Wavefunction, lo, hi, floor float64) (chebPanel, 
 // chebFit returns the Chebyshev interpolant of f on [lo, hi] through n + 1
 // Lobatto points, n doubling from chebMin until the last coefficients fall
 // below chebTol of the largest or of floor, whichever is larger (then
-// trimmed), and whether that happened by n = chebMax. The floor keeps a
-// piece where f is at the rounding level of its larger values elsewhere
-// from chasing noise.
-func chebFit(f func(float64) float64, lo, hi, floor float64) (chebPanel, bool) {
+// trimmed), and whether that happened by n = maxN. The floor keeps a piece
+// where f is at the rounding level of its larger values elsewhere from
+// chasing noise.
+func chebFit(f func(float64) float64, lo, hi, floor float64, maxN int) (chebPanel, bool) {
 	half, mid := (hi-lo)/2, (hi+lo)/2
 	// vals holds f at mid + half cos(πj/n), j = 0..n, for the current n.
 	var vals []float64
 	var c []float64
-	for n := chebMin; n <= chebMax; n *= 2 {
+	for n := chebMin; n <= maxN; n *= 2 {
 		cs := cosTable(n)
 		next := make([]float64, n+1)
 		for j := 0; j <= n; j++ {
@@ -630,6 +630,11 @@ const (
 	pairOrder     = 8
 	pairMinScale  = 0.01
 	pairMinLevels = 4
+	// segmentDegree and segmentSplits bound the interpolants of C_s: a
+	// segment is halved up to segmentSplits times until degree
+	// segmentDegree resolves each piece.
+	segmentDegree = chebMax
+	segmentSplits = 4
 )
 
 // newPairDensity builds the rules over u for the carriers e and h, whose
@@ -716,20 +721,46 @@ func newPairDensity(e, h *carrier, la float64) pairDensity {
 	}
 
 	// C_s on each segment between cuts, where it is a polynomial (of the
-	// wavefunctions' series), as a Chebyshev interpolant: far fewer
-	// evaluations than the rules have nodes. A segment that the
-	// interpolant does not resolve (it always should) is evaluated
-	// directly.
+	// wavefunctions' series), as Chebyshev interpolants: far fewer
+	// evaluations than the rules have nodes (one interpolant per segment
+	// needs fewer than pieces would: C_s is smooth there). A segment that
+	// degree segmentDegree does not resolve is halved; a piece still
+	// unresolved at the smallest length (it should not happen) is marked
+	// by nil coefficients and evaluated directly.
 	cs := func(u float64) float64 { return separation(e, h, u) + separation(h, e, u) }
-	segs := make([]chebPanel, len(cuts)-1)
-	direct := make([]bool, len(cuts)-1)
 	// C_s integrates to 1 over [0, span], so it peaks at 1/span or above.
-	for i := range segs {
-		var ok bool
-		segs[i], ok = chebFit(cs, cuts[i], cuts[i+1], 0.1/span)
-		direct[i] = !ok
+	floor := 0.1 / span
+	var pieces []chebPanel
+	var fit func(a, b float64, depth int)
+	fit = func(a, b float64, depth int) {
+		p, ok := chebFit(cs, a, b, floor, segmentDegree)
+		switch {
+		case ok:
+			pieces = append(pieces, p)
+		case depth < segmentSplits:
+			m := (a + b) / 2
+			fit(a, m, depth+1)
+			fit(m, b, depth+1)
+		default:
+			pieces = append(pieces, chebPanel{lo: a, hi: b})
+		}
 	}
-	seg := 0
+	for i := 0; i+1 < len(cuts); i++ {
+		fit(cuts[i], cuts[i+1], 0)
+	}
+	density := func(u float64) float64 {
+		i, _ := slices.BinarySearchFunc(pieces, u, func(p chebPanel, u float64) int {
+			if p.hi < u {
+				return -1
+			}
+			return 1
+		})
+		p := &pieces[min(i, len(pieces)-1)]
+		if p.c == nil {
+			return cs(u)
+		}
+		return p.at(u)
+	}
 
 	var pd pairDensity
 	pd.span = span
@@ -738,9 +769,6 @@ func newPairDensity(e, h *carrier, la float64) pairDensity {
 		_, mw := ccRule(pn.order)
 		_, cw := ccRule(pn.order / 2)
 		half, mid := (pn.b-pn.a)/2, (pn.b+pn.a)/2
-		for seg+1 < len(segs) && segs[seg].hi <= pn.a {
-			seg++
-		}
 		for j := range fx {
 			u := mid + half*fx[j]
 			if j == 0 {
@@ -748,12 +776,7 @@ func newPairDensity(e, h *carrier, la float64) pairDensity {
 			} else if j == len(fx)-1 {
 				u = pn.a
 			}
-			var c float64
-			if direct[seg] {
-				c = cs(u)
-			} else {
-				c = segs[seg].at(u)
-			}
+			c := density(u)
 			pd.fine = append(pd.fine, pairNode{u * la, half * fw[j] * c})
 			if j%2 == 0 {
 				pd.medium = append(pd.medium, pairNode{u * la, half * mw[j/2] * c})
@@ -767,9 +790,11 @@ func newPairDensity(e, h *carrier, la float64) pairDensity {
 }
 
 // separationSkip bounds the pieces of the separation density that are left
-// out: C_s integrates to 1 over at most 1e4 (the widest support), and its
-// interpolants stop at 1e-13 of 1e-5 (see newPairDensity).
-const separationSkip = 1e-20
+// out: C_s integrates to 1 over at most 2e4 (twice the widest support),
+// and its interpolants stop at 1e-13 of a tenth of 1/span (see
+// newPairDensity), at least 5e-19; a few hundred skipped pieces stay
+// below that.
+const separationSkip = 1e-21
 
 // separation returns ∫ φ_a²(y + u) φ_b²(y) dy for u ≥ 0: the density of
 // ξ_a − ξ_b at u. The integral is split where either series changes

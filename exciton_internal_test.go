@@ -52,7 +52,7 @@ func TestCCRule(t *testing.T) {
 // chebFit reproduces a smooth function and reports one it cannot resolve.
 func TestChebFit(t *testing.T) {
 	t.Parallel()
-	p, ok := chebFit(math.Exp, -1, 2, 0)
+	p, ok := chebFit(math.Exp, -1, 2, 0, chebMax)
 	if !ok || len(p.c) > 25 {
 		t.Fatalf("exp: ok %v, degree %d", ok, len(p.c)-1)
 	}
@@ -61,7 +61,7 @@ func TestChebFit(t *testing.T) {
 			t.Errorf("exp(%g): %.17g, want %.17g", x, got, math.Exp(x))
 		}
 	}
-	if _, ok := chebFit(math.Abs, -1, 1.5, 0); ok {
+	if _, ok := chebFit(math.Abs, -1, 1.5, 0, chebMax); ok {
 		t.Error("|x| across 0 should not converge")
 	}
 }
