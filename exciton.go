@@ -584,20 +584,25 @@ func cosTable(n int) []float64 {
 // and read-only after. gonum v0.17.0 tabulates a wrong 26-point rule (its
 // two outermost weights are 0, and the weights sum to 1.979); the
 // 27-point rule stands in for it (TestGaussRule).
-func gaussRule(n int) rule {
+func gaussRule(n int) quadNodes {
 	if n == 26 {
 		n = 27
 	}
 	if r, ok := gaussRules.Load(n); ok {
-		return r.(rule)
+		return r.(quadNodes)
 	}
-	r := rule{x: make([]float64, n), w: make([]float64, n)}
+	r := quadNodes{x: make([]float64, n), w: make([]float64, n)}
 	quad.Legendre{}.FixedLocations(r.x, r.w, -1, 1)
 	v, _ := gaussRules.LoadOrStore(n, r)
-	return v.(rule)
+	return v.(quadNodes)
 }
 
 var gaussRules sync.Map
+
+// quadNodes is a quadrature rule on [−1, 1]: nodes x and weights w.
+type quadNodes struct {
+	x, w []float64
+}
 
 // ---- The density of the electron–hole separation ----
 
@@ -851,7 +856,7 @@ func separation(a, b *carrier, u float64) float64 {
 // built on first use and read-only after.
 func ccRule(n int) (x, w []float64) {
 	if r, ok := ccRules.Load(n); ok {
-		rr := r.(rule)
+		rr := r.(quadNodes)
 		return rr.x, rr.w
 	}
 	x = make([]float64, n+1)
@@ -872,8 +877,8 @@ func ccRule(n int) (x, w []float64) {
 		}
 		w[j] = cj / float64(n) * (1 - s)
 	}
-	v, _ := ccRules.LoadOrStore(n, rule{x, w})
-	rr := v.(rule)
+	v, _ := ccRules.LoadOrStore(n, quadNodes{x, w})
+	rr := v.(quadNodes)
 	return rr.x, rr.w
 }
 
