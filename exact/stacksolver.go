@@ -168,21 +168,27 @@ func (s Solver) stackLevels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.
 
 // stackLevel returns level n alone.
 func (s Solver) stackLevel(f float64, n int) (tiltwell.Level, error) {
-	sl, err := s.solveOne(f, n)
+	sl, _, err := s.solveOneCalc(f, n)
 	return sl.lv, err
 }
 
-func (s Solver) solveOne(f float64, n int) (stackLevel, error) {
-	if err := tiltwell.CheckArgs("exact", f, n, MaxLevels, MaxField); err != nil {
-		return stackLevel{}, err
-	}
-	c := newCalc(s.Stack, f)
+// solveWithCount solves level n alone. If it is not confined it counts the
+// confined levels below it for the [tiltwell.ConfinedError].
+func (c *calc) solveWithCount(n int, f float64) (stackLevel, error) {
 	sl, why, err := c.solveStackLevel(n, math.Inf(-1), math.NaN())
 	if err != nil {
 		return stackLevel{}, err
 	}
-	if why != "" {
-		return stackLevel{}, &tiltwell.ConfinedError{Method: "exact", F: f, Asked: n, Confined: n - 1, Why: fmt.Sprintf("level %d: %s", n, why)}
+	if why == "" {
+		return sl, nil
 	}
-	return sl, nil
+	count, floor := 0, math.Inf(-1)
+	for k := 1; k < n; k++ {
+		s2, w2, e2 := c.solveStackLevel(k, floor, math.NaN())
+		if e2 != nil || w2 != "" {
+			break
+		}
+		count, floor = k, s2.real.eta
+	}
+	return stackLevel{}, &tiltwell.ConfinedError{Method: "exact", F: f, Asked: n, Confined: count, Why: fmt.Sprintf("level %d: %s", n, why)}
 }
