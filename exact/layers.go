@@ -191,7 +191,7 @@ func zeroFieldLayer(st *rstate, w, v, mu, eta float64) {
 	aw := math.Abs(w)
 	// C = cosh(√λ|w|), S = sinh(√λ|w|)/√λ (cos and sin(√−λ|w|)/√−λ for
 	// λ < 0); the leftward transfer, the inverse, has −S.
-	var C, S, Cl, Sl, lgAdd float64
+	var C, S, Cl, Sl float64
 	x := lam * aw * aw
 	switch {
 	case math.Abs(x) < 1:
@@ -204,19 +204,14 @@ func zeroFieldLayer(st *rstate, w, v, mu, eta float64) {
 		}
 		C, S = c, aw*s
 		Cl, Sl = aw*S/2, aw*aw*aw*sdSeries(x)
+	case lam > 0 && math.Sqrt(lam)*aw > 1:
+		twoModeLayer(st, w, lam, mu)
+		return
 	case lam > 0:
 		k := math.Sqrt(lam)
 		kw := k * aw
-		if kw > 1 {
-			// Scale by e^(−κw).
-			e2 := math.Exp(-2 * kw)
-			C = (1 + e2) / 2
-			S = (1 - e2) / (2 * k)
-			lgAdd = kw
-		} else {
-			C = math.Cosh(kw)
-			S = math.Sinh(kw) / k
-		}
+		C = math.Cosh(kw)
+		S = math.Sinh(kw) / k
 		Cl = aw * S / 2
 		Sl = (aw*C - S) / (2 * lam)
 	default:
@@ -237,7 +232,6 @@ func zeroFieldLayer(st *rstate, w, v, mu, eta float64) {
 	nu := dual{t11*u.v + t12*wv.v, t11d*u.v + t12d*wv.v + t11*u.d + t12*wv.d}
 	nw := dual{t21*u.v + t11*wv.v, t21d*u.v + t11d*wv.v + t21*u.d + t11*wv.d}
 	st.u, st.w = nu, nw
-	st.lg += lgAdd
 	st.steps++
 	if lam < 0 && math.Sqrt(-lam)*aw >= math.Pi {
 		// Count from the phase: the Prüfer angle atan2((k/μ)φ, w)
@@ -250,6 +244,53 @@ func zeroFieldLayer(st *rstate, w, v, mu, eta float64) {
 		}
 		st.nodes += int(math.Round((k*aw + a0 - a1) / math.Pi))
 	} else if crossed(from, nu.v) {
+		st.nodes++
+	}
+	st.renorm()
+}
+
+// twoModeLayer carries st across a zero-field barrier layer with κ|w| > 1
+// (w < 0 for the leftward direction) in the form φ = G e^(κd) + Q e^(−κd),
+// d the distance travelled: the amplitude G of the mode that grows along
+// the way is formed once, so that the direction of the result is that of
+// a solution (the matrix form would round φ and w separately, and a
+// state entering nearly in the decaying mode would leave in a direction
+// wrong by ε over the size of G).
+func twoModeLayer(st *rstate, w, lam, mu float64) {
+	k := math.Sqrt(lam)
+	aw := math.Abs(w)
+	kd := -math.Pi * math.Pi * mu / (2 * k) // dκ/dη
+	sg := 1.0
+	if w < 0 {
+		sg = -1
+	}
+	// In the direction of travel, w' = σw with σ = ±1; the growing mode has
+	// w'/φ = κ/μ.
+	r := mu / k
+	rd := -mu * kd / (k * k)
+	u, wv := st.u, dual{sg * st.w.v, sg * st.w.d}
+	G := dual{(u.v + r*wv.v) / 2, (u.d + r*wv.d + rd*wv.v) / 2}
+	Q := dual{(u.v - r*wv.v) / 2, (u.d - r*wv.d - rd*wv.v) / 2}
+	kw := k * aw
+	e2 := math.Exp(-2 * kw)
+	kwd := kd * aw
+	e2d := -2 * kwd * e2
+	km := k / mu
+	kmd := kd / mu
+	// Scaled by e^(−κ|w|): φ = G + Q e2, σw = (κ/μ)(G − Q e2); the
+	// derivative of the scale factor, κ′|w|, is folded into the
+	// derivatives.
+	nu := dual{G.v + Q.v*e2, G.d + Q.d*e2 + Q.v*e2d}
+	dm := dual{G.v - Q.v*e2, G.d - Q.d*e2 - Q.v*e2d}
+	nw := dual{km * dm.v, kmd*dm.v + km*dm.d}
+	nu.d += kwd * nu.v
+	nw.d += kwd * nw.v
+	from := st.u.v
+	st.u = nu
+	st.w = dual{sg * nw.v, sg * nw.d}
+	st.lg += clampLg(kw)
+	st.steps++
+	if crossed(from, nu.v) {
 		st.nodes++
 	}
 	st.renorm()

@@ -327,9 +327,15 @@ func zeroValue(u, w, h, v, mu, eta float64) (float64, float64) {
 		}
 		C, S = cc, ah*ss
 	case lam > 0:
+		// The two modes, as in twoModeLayer.
 		k := math.Sqrt(lam)
 		e2 := math.Exp(-2 * k * ah)
-		C, S, lg = (1+e2)/2, (1-e2)/(2*k), k*ah
+		sw := w
+		if h < 0 {
+			sw = -w
+		}
+		G, Q := (u+mu*sw/k)/2, (u-mu*sw/k)/2
+		return G + Q*e2, k * ah
 	default:
 		k := math.Sqrt(-lam)
 		sn, cs := math.Sincos(k * ah)

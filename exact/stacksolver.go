@@ -35,13 +35,14 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 	// The ceiling: if the level equation has not reached (n−1)π there,
 	// level n is not confined.
 	m := c.matchPoint()
+	// A level within rounding of the ceiling is not confined.
 	rhi := c.eval(hi, m, c.scaleAt(m, hi))
-	if rhi.D < target {
+	if !(rhi.D-target > rhi.errD) {
 		if hi < ec {
 			// The Dirichlet bound failed by rounding: fall back on
 			// the ceiling itself.
 			hi = ec
-			if rhi = c.eval(hi, m, c.scaleAt(m, hi)); rhi.D < target {
+			if rhi = c.eval(hi, m, c.scaleAt(m, hi)); !(rhi.D-target > rhi.errD) {
 				return stackLevel{}, "above the barrier", nil
 			}
 		} else {
@@ -60,7 +61,7 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 	}
 	out := stackLevel{real: rl, spacing: math.Pi / rl.res.Dp}
 	out.lv = tiltwell.Level{N: n, Energy: rl.eta, Err: rl.err, Bound: tiltwell.Estimate}
-	if !(rl.eta < ec) {
+	if !(rl.eta+rl.err < ec) {
 		return stackLevel{}, "above the barrier", nil
 	}
 	if c.f == 0 {

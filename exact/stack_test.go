@@ -1,0 +1,290 @@
+package exact
+
+import (
+	"errors"
+	"math"
+	"testing"
+
+	"github.com/tiltwell/tiltwell"
+)
+
+// mustWell returns the finite well of barrier v and barrier mass ratio mu.
+func mustWell(t testing.TB, v, mu float64) tiltwell.Stack {
+	t.Helper()
+	s, err := tiltwell.FiniteWell(v, mu)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+func mustStack(t testing.TB, layers []tiltwell.Layer, ref int) tiltwell.Stack {
+	t.Helper()
+	s, err := tiltwell.NewStack(layers, ref)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+// roots returns the roots of g on (lo, hi), found by scanning n cells for
+// sign changes and bisecting each to the last bit.
+func roots(g func(float64) float64, lo, hi float64, n int) []float64 {
+	var out []float64
+	a, ga := lo, g(lo)
+	for i := 1; i <= n; i++ {
+		b := lo + (hi-lo)*float64(i)/float64(n)
+		gb := g(b)
+		if ga == 0 {
+			out = append(out, a)
+		} else if (ga < 0) != (gb < 0) && gb != 0 {
+			x0, x1, g0 := a, b, ga
+			for range 200 {
+				m := x0 + (x1-x0)/2
+				if m == x0 || m == x1 {
+					break
+				}
+				if gm := g(m); (gm < 0) == (g0 < 0) {
+					x0, g0 = m, gm
+				} else {
+					x1 = m
+				}
+			}
+			out = append(out, x0+(x1-x0)/2)
+		}
+		a, ga = b, gb
+	}
+	return out
+}
+
+// textbookLevels returns the bound levels of the symmetric finite well
+// from the textbook even and odd conditions, with the BenDaniel–Duke mass
+// ratio μ of the barrier (G. Bastard, Wave Mechanics Applied to
+// Semiconductor Heterostructures (1988), ch. III; from memory):
+//
+//	even: k tan(k/2) = κ/μ,   odd: −k cot(k/2) = κ/μ,
+//
+// k = π√η, κ = π√(μ(v − η)), written without poles as k sin(k/2) −
+// (κ/μ)cos(k/2) = 0 and k cos(k/2) + (κ/μ) sin(k/2) = 0.
+func textbookLevels(v, mu float64) []float64 {
+	kap := func(eta float64) float64 { return math.Pi * math.Sqrt(mu*(v-eta)) }
+	even := func(eta float64) float64 {
+		k := math.Pi * math.Sqrt(eta)
+		return k*math.Sin(k/2) - kap(eta)/mu*math.Cos(k/2)
+	}
+	odd := func(eta float64) float64 {
+		k := math.Pi * math.Sqrt(eta)
+		return k*math.Cos(k/2) + kap(eta)/mu*math.Sin(k/2)
+	}
+	n := 4000 + int(40*math.Sqrt(v))
+	// The odd condition vanishes trivially at k = 0: start above it.
+	all := append(roots(even, 1e-12, v, n), roots(odd, 1e-12, v, n)...)
+	sortFloats(all)
+	return all
+}
+
+func sortFloats(x []float64) {
+	for i := 1; i < len(x); i++ {
+		for j := i; j > 0 && x[j] < x[j-1]; j-- {
+			x[j], x[j-1] = x[j-1], x[j]
+		}
+	}
+}
+
+// TestStackTextbookFiniteWell checks the zero-field levels of symmetric
+// finite wells against the textbook even and odd conditions solved here
+// by bisection, and the number of bound levels against their count.
+func TestStackTextbookFiniteWell(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct{ v, mu float64 }{
+		{4.3, 1.37}, {1, 1}, {0.3, 2}, {30, 0.5}, {100, 1}, {2000, 3},
+	} {
+		want := textbookLevels(c.v, c.mu)
+		st := mustWell(t, c.v, c.mu)
+		got, err := Solver{Stack: st}.Levels(nil, 0, len(want)+1)
+		if n, ok := tiltwell.Confined(err); !ok || n != len(want) {
+			t.Errorf("v=%g μ=%g: Levels(k=%d) error %v, want a ConfinedError with %d confined", c.v, c.mu, len(want)+1, err, len(want))
+		}
+		if len(got) != len(want) {
+			t.Fatalf("v=%g μ=%g: %d levels, want %d", c.v, c.mu, len(got), len(want))
+		}
+		for i, w := range want {
+			g := got[i]
+			d := math.Abs(g.Energy - w)
+			tol := 4 * eps * max(1, w)
+			if d > g.Err+tol || d > 1e-13*max(1, w) {
+				t.Errorf("v=%g μ=%g n=%d: η = %.17g, textbook %.17g (diff %.2g, Err %.2g)", c.v, c.mu, i+1, g.Energy, w, d, g.Err)
+			}
+			if g.Gamma != 0 || g.GammaErr != 0 {
+				t.Errorf("v=%g μ=%g n=%d: Γ = %g ± %g at f = 0, want 0 ± 0", c.v, c.mu, i+1, g.Gamma, g.GammaErr)
+			}
+		}
+	}
+}
+
+// doubleWell returns the stack of two wells of width 1 (the left one the
+// reference) separated by a barrier of width b, all barriers of height v
+// and mass ratio mu.
+func doubleWell(t testing.TB, v, mu, b float64) tiltwell.Stack {
+	return mustStack(t, []tiltwell.Layer{
+		{Edge: v, Mass: mu}, {Width: 1, Mass: 1}, {Width: b, Edge: v, Mass: mu}, {Width: 1, Mass: 1}, {Edge: v, Mass: mu},
+	}, 1)
+}
+
+// doubleWellPair returns the even and odd ground levels of the symmetric
+// double well from the matching conditions written out by hand
+// (textbook, from memory): in the middle barrier φ = cosh κx (even) or
+// sinh κx (odd), in the well φ = A cos k(x − b/2) + B sin k(x − b/2) with
+// A = cosh(κb/2), B = κ sinh(κb/2)/(μk) (even; odd swaps cosh and sinh),
+// and the decaying exponential outside:
+//
+//	k(−A sin k + B cos k) + (κ/μ)(A cos k + B sin k) = 0.
+func doubleWellPair(v, mu, b float64) (even, odd float64) {
+	g := func(eta float64, isOdd bool) float64 {
+		k := math.Pi * math.Sqrt(eta)
+		kap := math.Pi * math.Sqrt(mu*(v-eta))
+		t := math.Tanh(kap * b / 2)
+		A, B := 1.0, kap*t/(mu*k)
+		if isOdd {
+			A, B = t, kap/(mu*k)
+		}
+		s, c := math.Sincos(k)
+		return k*(-A*s+B*c) + kap/mu*(A*c+B*s)
+	}
+	e := roots(func(x float64) float64 { return g(x, false) }, 1e-9, v, 20000)
+	o := roots(func(x float64) float64 { return g(x, true) }, 1e-9, v, 20000)
+	return e[0], o[0]
+}
+
+// TestStackDoubleWellSplitting checks the two lowest levels of symmetric
+// double wells at f = 0, and their splitting, against the closed-form even
+// and odd conditions.
+func TestStackDoubleWellSplitting(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct{ v, mu, b float64 }{
+		{10, 1, 0.3}, {10, 1, 1}, {4.3, 1.37, 0.2}, {50, 0.7, 0.5}, {20, 1, 2.5},
+	} {
+		e, o := doubleWellPair(c.v, c.mu, c.b)
+		got, err := Solver{Stack: doubleWell(t, c.v, c.mu, c.b)}.Levels(nil, 0, 2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, w := range []float64{e, o} {
+			d := math.Abs(got[i].Energy - w)
+			if d > got[i].Err+4*eps*max(1, w) || d > 1e-13*max(1, w) {
+				t.Errorf("v=%g μ=%g b=%g n=%d: η = %.17g, closed form %.17g (diff %.2g, Err %.2g)", c.v, c.mu, c.b, i+1, got[i].Energy, w, d, got[i].Err)
+			}
+		}
+		split, want := got[1].Energy-got[0].Energy, o-e
+		if d := math.Abs(split - want); d > got[0].Err+got[1].Err+8*eps*max(1, e) {
+			t.Errorf("v=%g μ=%g b=%g: splitting %.6g, closed form %.6g", c.v, c.mu, c.b, split, want)
+		}
+	}
+}
+
+// TestStackOrientation checks the numbers the team computed with mpmath
+// for a 10 nm GaAs-like electron well (v = 4.3, μ = 1.37; a check of the
+// project's own, not a publication): η₁ = 0.53932 at f = 0, η₁(1) =
+// 0.50017 with Γ₁ ≈ 6.9e-14, η₁(2) = 0.38689 with Γ₁ ≈ 2.8e-6.
+func TestStackOrientation(t *testing.T) {
+	t.Parallel()
+	s := Solver{Stack: mustWell(t, 4.3, 1.37)}
+	for _, c := range []struct{ f, eta, gamma float64 }{
+		{0, 0.53932, 0}, {1, 0.50017, 6.9e-14}, {2, 0.38689, 2.8e-6},
+	} {
+		l, err := s.Level(c.f, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(l.Energy-c.eta) > 0.5e-5 {
+			t.Errorf("f=%g: η₁ = %.8f, want %.5f", c.f, l.Energy, c.eta)
+		}
+		if c.gamma == 0 && l.Gamma != 0 || c.gamma != 0 && math.Abs(l.Gamma/c.gamma-1) > 0.05/2.8 {
+			t.Errorf("f=%g: Γ₁ = %.4g, want ≈ %.2g", c.f, l.Gamma, c.gamma)
+		}
+	}
+}
+
+// TestStackMirror checks η(f; v_L, v_R) = η(−f; v_R, v_L) and the same
+// for Γ, for asymmetric wells and a stepped well (the operator with f → −f
+// and ξ → 1 − ξ is the mirrored stack's; common practice, no source).
+func TestStackMirror(t *testing.T) {
+	t.Parallel()
+	stacks := []tiltwell.Stack{}
+	for _, w := range [][4]float64{{4.3, 1.37, 8, 0.9}, {30, 1, 6, 2}} {
+		s, err := tiltwell.AsymmetricWell(w[0], w[1], w[2], w[3])
+		if err != nil {
+			t.Fatal(err)
+		}
+		stacks = append(stacks, s)
+	}
+	stacks = append(stacks, mustStack(t, []tiltwell.Layer{{Edge: 12, Mass: 1.2}, {Width: 0.4, Edge: 2, Mass: 1.1}, {Width: 1, Mass: 1}, {Edge: 9, Mass: 1.3}}, 2))
+	for _, st := range stacks {
+		a, b := Solver{Stack: st}, Solver{Stack: st.Mirror()}
+		for _, f := range []float64{0.3, 1, 2.5} {
+			la, ea := a.Levels(nil, f, 3)
+			lb, eb := b.Levels(nil, -f, 3)
+			if len(la) != len(lb) || (ea == nil) != (eb == nil) {
+				t.Fatalf("%v f=%g: %d levels (%v) against %d mirrored (%v)", st, f, len(la), ea, len(lb), eb)
+			}
+			// The two see the interfaces rounded differently (1 − ξ):
+			// equal within the error estimates.
+			for i := range la {
+				p, q := la[i], lb[i]
+				if math.Abs(p.Energy-q.Energy) > p.Err+q.Err || math.Abs(p.Gamma-q.Gamma) > p.GammaErr+q.GammaErr {
+					t.Errorf("%v f=%g n=%d: %+v, mirrored %+v", st, f, i+1, p, q)
+				}
+			}
+		}
+	}
+}
+
+// TestStackBadInput checks the errors for bad arguments.
+func TestStackBadInput(t *testing.T) {
+	t.Parallel()
+	s := Solver{Stack: mustWell(t, 4.3, 1.37)}
+	for _, c := range []struct {
+		f    float64
+		k    int
+		want error
+	}{
+		{math.NaN(), 1, tiltwell.ErrField},
+		{math.Inf(1), 1, tiltwell.ErrField},
+		{math.Inf(-1), 1, tiltwell.ErrField},
+		{1, 0, tiltwell.ErrLevel},
+		{1, -3, tiltwell.ErrLevel},
+		{1, MaxLevels + 1, tiltwell.ErrLevel},
+		{2 * MaxField, 1, tiltwell.ErrOutOfRange},
+		{0, 5, tiltwell.ErrLevel},
+		{50, 1, tiltwell.ErrLevel},
+	} {
+		ls, err := s.Levels(nil, c.f, c.k)
+		if !errors.Is(err, c.want) {
+			t.Errorf("Levels(f=%g, k=%d): error %v, want %v", c.f, c.k, err, c.want)
+		}
+		if c.want != tiltwell.ErrLevel || c.k < 1 || c.k > MaxLevels {
+			if len(ls) != 0 {
+				t.Errorf("Levels(f=%g, k=%d) returned %d levels with its error", c.f, c.k, len(ls))
+			}
+		}
+		if _, err := s.Level(c.f, c.k); !errors.Is(err, c.want) {
+			t.Errorf("Level(f=%g, n=%d): error %v, want %v", c.f, c.k, err, c.want)
+		}
+		if _, err := s.Wavefunction(c.f, c.k); !errors.Is(err, c.want) {
+			t.Errorf("Wavefunction(f=%g, n=%d): error %v, want %v", c.f, c.k, err, c.want)
+		}
+		if _, err := s.Dipole(c.f, c.k); !errors.Is(err, c.want) {
+			t.Errorf("Dipole(f=%g, n=%d): error %v, want %v", c.f, c.k, err, c.want)
+		}
+	}
+	// More levels than bound: the bound ones and how many exist.
+	ls, err := s.Levels(nil, 0, 5)
+	var ce *tiltwell.ConfinedError
+	if !errors.As(err, &ce) || ce.Confined != 3 || len(ls) != 3 || ce.Asked != 5 {
+		t.Errorf("Levels(f=0, k=5) = %d levels, %v; want 3 and a ConfinedError saying 3", len(ls), err)
+	}
+	if _, err := s.Level(0, 4); !errors.As(err, &ce) || ce.Confined != 3 {
+		t.Errorf("Level(0, 4): %v, want a ConfinedError saying 3", err)
+	}
+
+}
