@@ -242,7 +242,13 @@ func zeroFieldLayer(st *rstate, w, v, mu, eta float64) {
 		if w < 0 {
 			a0, a1 = a1, a0
 		}
-		st.nodes += int(math.Round((k*aw + a0 - a1) / math.Pi))
+		if ph := k * aw; ph < 1e15 {
+			st.nodes += int(math.Round((ph + a0 - a1) / math.Pi))
+		} else {
+			// Beyond any level this solver reaches: count nothing
+			// rather than an overflowed integer.
+			st.nodes += 318309886183791 // 1e15/π
+		}
 	} else if crossed(from, nu.v) {
 		st.nodes++
 	}
@@ -307,17 +313,19 @@ func sdSeries(x float64) float64 {
 	return s / 6
 }
 
-// lineAngle returns the angle of the line through (x, y) = (w, Sφ), in
-// [0, π): atan2(y, x) reduced modulo π.
+// lineAngle returns the angle of the line through (x, y) = (w, Sφ) in
+// [0, π], continued from the sign of y = Sφ: atan2(y, x) for y > 0 and
+// atan2(y, x) + π for y < 0. An angle that rounds to π is left at π
+// rather than folded to 0, so that the angle and the sign of φ (from which
+// zeros are counted) never disagree.
 func lineAngle(y, x float64) float64 {
-	a := math.Atan2(y, x)
-	if a < 0 {
-		a += math.Pi
+	switch {
+	case y > 0:
+		return math.Atan2(y, x)
+	case y < 0:
+		return math.Atan2(y, x) + math.Pi
 	}
-	if a >= math.Pi {
-		a -= math.Pi
-	}
-	return a
+	return 0
 }
 
 // thickRight carries st rightward from forbidden point a to b (a thick

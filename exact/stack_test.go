@@ -288,3 +288,58 @@ func TestStackBadInput(t *testing.T) {
 	}
 
 }
+
+// TestStackInfiniteLimit checks that as the barriers grow the levels
+// approach the infinite-wall solver's at the rate the penetration depth
+// sets: at f = 0, n² − η_n ≈ 4n²/(π√v) for μ = 1 (each phase shift is
+// atan(k/κ) ≈ k/κ with κ = π√v; common practice, no source), so
+// √v (η_∞ − η) tends to a constant; and that v = 1e300 neither overflows
+// nor loses the levels.
+func TestStackInfiniteLimit(t *testing.T) {
+	t.Parallel()
+	for _, f := range []float64{0, 1, 10} {
+		inf, err := Solver{}.Levels(nil, f, 3)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var prev [3]float64
+		for e := 2; e <= 12; e += 2 {
+			v := math.Pow(10, float64(e))
+			ls, err := Solver{Stack: mustWell(t, v, 1)}.Levels(nil, f, 3)
+			if err != nil {
+				t.Fatalf("v=%g f=%g: %v", v, f, err)
+			}
+			for i, l := range ls {
+				n := float64(i + 1)
+				r := math.Sqrt(v) * (inf[i].Energy - l.Energy)
+				if f == 0 {
+					// 4n²/π (1 + O(1/√v)).
+					if want := 4 * n * n / math.Pi; math.Abs(r/want-1) > 4/math.Sqrt(v)+1e-5 {
+						t.Errorf("v=%g n=%d: √v(n² − η) = %.10g, want %.10g", v, i+1, r, want)
+					}
+				}
+				if e > 2 {
+					// The scaled difference settles: successive values
+					// agree to O(1/√v).
+					if math.Abs(r-prev[i]) > 20*math.Abs(r)/math.Sqrt(v)*10+1e-4*math.Abs(r) {
+						t.Errorf("v=%g f=%g n=%d: √v(η_∞ − η) = %.10g, at v/100 %.10g", v, f, i+1, r, prev[i])
+					}
+				}
+				prev[i] = r
+			}
+		}
+		// v = 1e300: the infinite well to rounding.
+		ls, err := Solver{Stack: mustWell(t, 1e300, 1)}.Levels(nil, f, 3)
+		if err != nil {
+			t.Fatalf("v=1e300 f=%g: %v", f, err)
+		}
+		for i, l := range ls {
+			if d := math.Abs(l.Energy - inf[i].Energy); d > 1e-14*max(1, math.Abs(inf[i].Energy)) || math.IsNaN(l.Err) || l.Err > 1e-13 {
+				t.Errorf("v=1e300 f=%g n=%d: η = %.17g ± %.2g, infinite walls %.17g", f, i+1, l.Energy, l.Err, inf[i].Energy)
+			}
+			if l.Gamma != 0 || l.GammaErr > gammaFloor {
+				t.Errorf("v=1e300 f=%g n=%d: Γ = %g ± %g, want 0 (≤ 1e-300)", f, i+1, l.Gamma, l.GammaErr)
+			}
+		}
+	}
+}

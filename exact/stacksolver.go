@@ -38,15 +38,18 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 	// A level within rounding of the ceiling is not confined.
 	rhi := c.eval(hi, m, c.scaleAt(m, hi))
 	if !(rhi.D-target > rhi.errD) {
-		if hi < ec {
-			// The Dirichlet bound failed by rounding: fall back on
-			// the ceiling itself.
+		if hi == ec {
+			return stackLevel{}, "above the barrier", nil
+		}
+		// The level is within rounding of its Dirichlet bound (tall
+		// barriers): widen the bound by its rounding width, and only
+		// then fall back on the ceiling.
+		hi = min(ec, hi+max(16*rhi.errD/max(rhi.Dp, 1e-300), 8*eps*math.Abs(hi), 1e-300))
+		if rhi = c.eval(hi, m, c.scaleAt(m, hi)); !(rhi.D-target > rhi.errD) {
 			hi = ec
 			if rhi = c.eval(hi, m, c.scaleAt(m, hi)); !(rhi.D-target > rhi.errD) {
 				return stackLevel{}, "above the barrier", nil
 			}
-		} else {
-			return stackLevel{}, "above the barrier", nil
 		}
 	}
 	// D is −π exactly at the level below; below the lowest band edge it
