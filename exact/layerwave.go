@@ -65,6 +65,11 @@ func (r *waveRecorder) point(xi float64, st *rstate, seg segInfo) {
 func (c *calc) newStackWave(sl *stackLevel) *StackWave {
 	rl := &sl.real
 	eta, m := rl.eta, rl.m
+	if rl.evalEta != eta {
+		// The norm needs the level equation at the level itself.
+		rl.res = c.eval(eta, m, rl.S)
+		rl.evalEta = eta
+	}
 	sw := &StackWave{c: *c, eta: eta, n: sl.lv.N}
 	// Carry both solutions again, recording every step.
 	var left, right waveRecorder

@@ -215,10 +215,14 @@ func (c *calc) scaleAt(m int, eta float64) float64 {
 // realLevel is a solved level of the real problem.
 type realLevel struct {
 	eta, err float64
-	res      evalResult
-	m        int
-	S        float64
-	its      int
+	// res is the level equation at evalEta, the last η evaluated (the
+	// final η is a Newton step beyond it when the iteration stopped on
+	// quadratic convergence).
+	res     evalResult
+	evalEta float64
+	m       int
+	S       float64
+	its     int
 }
 
 // solveReal finds level n of the real problem inside (lo, hi), where
@@ -294,6 +298,7 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			r = c.eval(eta, m, S)
 			next, ok = newtonNext(r.D-target, r.Dp)
 		}
+		evalEta := eta
 		g := r.D - target
 		if traceNewton {
 			fmt.Printf("   it=%d m=%d η=%.17g g=%.3g Dp=%.3g [%.6g, %.6g]\n", it, m, eta, g, r.Dp, lo, hi)
@@ -306,13 +311,14 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 		dp := r.Dp
 		ulp := eps * max(1, math.Abs(eta))
 		done := func(eta, err float64) (realLevel, error) {
+			evalEta := evalEta
 			if all {
 				// Match where the level lives.
 				r, m = c.flattest(ae)
 				S = ae.S[m]
 				err = max(err, 2*r.errD/r.Dp+2*ulp)
 			}
-			return realLevel{eta: eta, err: err, res: r, m: m, S: S, its: it}, nil
+			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it}, nil
 		}
 		if dp > 0 && !math.IsInf(dp, 0) {
 			step := g / dp

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/tiltwell/tiltwell"
+	"gonum.org/v1/gonum/integrate/quad"
 )
 
 // mustWell returns the finite well of barrier v and barrier mass ratio mu.
@@ -339,6 +340,203 @@ func TestStackInfiniteLimit(t *testing.T) {
 			}
 			if l.Gamma != 0 || l.GammaErr > gammaFloor {
 				t.Errorf("v=1e300 f=%g n=%d: Γ = %g ± %g, want 0 (≤ 1e-300)", f, i+1, l.Gamma, l.GammaErr)
+			}
+		}
+	}
+}
+
+// integrateSplit integrates g over [lo, hi] by 10-point Gauss–Legendre on
+// pieces of length at most h, split at the stack's interfaces (where φ′
+// jumps with the mass ratio).
+func integrateSplit(g func(float64) float64, lo, hi, h float64, st tiltwell.Stack) float64 {
+	cuts := []float64{lo}
+	for _, x := range st.Interfaces(nil) {
+		if x > lo && x < hi {
+			cuts = append(cuts, x)
+		}
+	}
+	cuts = append(cuts, hi)
+	s := 0.0
+	for i := 0; i+1 < len(cuts); i++ {
+		a, b := cuts[i], cuts[i+1]
+		n := int(math.Ceil((b - a) / h))
+		for j := range n {
+			x0 := a + (b-a)*float64(j)/float64(n)
+			x1 := a + (b-a)*float64(j+1)/float64(n)
+			s += quad.Fixed(g, x0, x1, 10, quad.Legendre{}, 0)
+		}
+	}
+	return s
+}
+
+// testStacks is a small zoo of stacks for the identity checks: a GaAs-like
+// finite well, an asymmetric well with different masses, a stepped well,
+// and an asymmetric double well (all invented for the tests).
+func testStacks(t testing.TB) map[string]tiltwell.Stack {
+	asym, err := tiltwell.AsymmetricWell(6, 0.8, 12, 1.5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return map[string]tiltwell.Stack{
+		"gaas":    mustWell(t, 4.3, 1.37),
+		"asym":    asym,
+		"stepped": mustStack(t, []tiltwell.Layer{{Edge: 12, Mass: 1.2}, {Width: 0.4, Edge: 2, Mass: 1.1}, {Width: 1, Mass: 1}, {Edge: 9, Mass: 1.3}}, 2),
+		"double":  mustStack(t, []tiltwell.Layer{{Edge: 10, Mass: 1}, {Width: 1, Mass: 1}, {Width: 0.3, Edge: 10, Mass: 1.2}, {Width: 0.8, Edge: -0.5, Mass: 0.9}, {Edge: 10, Mass: 1}}, 1),
+	}
+}
+
+// TestStackWavefunctions checks that the wavefunctions are normalized over
+// their support, positive at the first interface, have n − 1 zeros
+// between the outer interfaces, and (bound states) are orthogonal.
+func TestStackWavefunctions(t *testing.T) {
+	t.Parallel()
+	for name, st := range testStacks(t) {
+		s := Solver{Stack: st}
+		ifs := st.Interfaces(nil)
+		for _, f := range []float64{0, 0.5, 2, -1} {
+			ls, err := s.Levels(nil, f, 3)
+			if err != nil && !errors.Is(err, tiltwell.ErrLevel) {
+				t.Fatalf("%s f=%g: %v", name, f, err)
+			}
+			var waves []tiltwell.Wavefunction
+			for _, l := range ls {
+				w, err := s.Wavefunction(f, l.N)
+				if err != nil {
+					t.Fatalf("%s f=%g n=%d: %v", name, f, l.N, err)
+				}
+				waves = append(waves, w)
+				lo, hi := tiltwell.Support(w)
+				norm := integrateSplit(func(x float64) float64 { v := w.At(x); return v * v }, lo, hi, 0.02, st)
+				if math.Abs(norm-1) > 1e-10+l.Gamma {
+					t.Errorf("%s f=%g n=%d: ∫φ² over [%.3g, %.3g] = %.15g", name, f, l.N, lo, hi, norm)
+				}
+				if x1 := ifs[0]; !(w.At(x1) > 0) {
+					t.Errorf("%s f=%g n=%d: φ(%g) = %g, want > 0", name, f, l.N, x1, w.At(x1))
+				}
+				zeros, prev := 0, w.At(ifs[0])
+				x0, x1 := ifs[0], ifs[len(ifs)-1]
+				for i := 1; i <= 4000; i++ {
+					v := w.At(x0 + (x1-x0)*float64(i)/4000)
+					if v*prev < 0 {
+						zeros++
+					}
+					if v != 0 {
+						prev = v
+					}
+				}
+				if zeros != l.N-1 {
+					t.Errorf("%s f=%g n=%d: %d zeros between the outer interfaces, want %d", name, f, l.N, zeros, l.N-1)
+				}
+			}
+			if f != 0 {
+				continue
+			}
+			for i := range waves {
+				for j := i + 1; j < len(waves); j++ {
+					lo, hi := tiltwell.Support(waves[i])
+					lo2, hi2 := tiltwell.Support(waves[j])
+					lo, hi = min(lo, lo2), max(hi, hi2)
+					o := integrateSplit(func(x float64) float64 { return waves[i].At(x) * waves[j].At(x) }, lo, hi, 0.02, st)
+					if math.Abs(o) > 1e-10 {
+						t.Errorf("%s: ∫φ%dφ%d = %.3g, want 0", name, i+1, j+1, o)
+					}
+				}
+			}
+		}
+	}
+}
+
+// TestStackHellmannFeynman checks Dipole = ⟨ξ − ½⟩ against the slope
+// dη/df by central differences (Hellmann–Feynman), for bound levels and
+// for narrow quasi-bound ones (Γ < 1e-10, where the two agree to far
+// below the difference's own error), and ⟨ξ − ½⟩ against the quadrature
+// of (ξ − ½)φ².
+func TestStackHellmannFeynman(t *testing.T) {
+	t.Parallel()
+	const h = 1e-4
+	for name, st := range testStacks(t) {
+		s := Solver{Stack: st}
+		for _, f := range []float64{0, 0.3, 1, -0.7} {
+			ls, _ := s.Levels(nil, f, 3)
+			for _, l := range ls {
+				if l.Gamma > 1e-10 {
+					continue
+				}
+				d, err := s.Dipole(f, l.N)
+				if err != nil {
+					t.Fatal(err)
+				}
+				lm, e1 := s.Level(f-h, l.N)
+				lp, e2 := s.Level(f+h, l.N)
+				if e1 != nil || e2 != nil {
+					t.Fatal(e1, e2)
+				}
+				fd := (lp.Energy - lm.Energy) / (2 * h)
+				// O(h²) truncation and rounding ~1e-15/h.
+				if math.Abs(fd-d) > 2e-8+1e-6*math.Abs(d) {
+					t.Errorf("%s f=%g n=%d: Dipole %.12g, dη/df by differences %.12g", name, f, l.N, d, fd)
+				}
+				w, _ := s.Wavefunction(f, l.N)
+				lo, hi := tiltwell.Support(w)
+				q := integrateSplit(func(x float64) float64 { v := w.At(x); return (x - 0.5) * v * v }, lo, hi, 0.02, st)
+				if math.Abs(q-d) > 1e-11*(1+math.Abs(d)) {
+					t.Errorf("%s f=%g n=%d: Dipole %.15g, quadrature %.15g", name, f, l.N, d, q)
+				}
+			}
+		}
+	}
+}
+
+// TestStackWeakField checks that the field-on levels join the zero-field
+// ones smoothly: for a symmetric well (η(f) − η(0))/f² settles to the
+// polarisability, for an asymmetric one (η(f) − η(0))/f to the zero-field
+// dipole (first-order perturbation theory, common practice), and at
+// f ≤ 1e-9 the levels equal the zero-field ones within the estimates.
+func TestStackWeakField(t *testing.T) {
+	t.Parallel()
+	for name, st := range testStacks(t) {
+		s := Solver{Stack: st}
+		l0, err := s.Levels(nil, 0, 2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for n := 1; n <= 2; n++ {
+			d0, err := s.Dipole(0, n)
+			if err != nil {
+				t.Fatal(err)
+			}
+			e0 := l0[n-1].Energy
+			// c₂ from a moderate field, then the weak-field ratios.
+			l3, _ := s.Level(1e-3, n)
+			lm3, _ := s.Level(-1e-3, n)
+			c2 := (l3.Energy + lm3.Energy - 2*e0) / (2e-6)
+			// The third-order term of (η(f) − η(−f))/2f, measured at
+			// f = 1e-3 and scaled by f².
+			c3 := math.Abs((l3.Energy-lm3.Energy)/2e-3-d0) / 1e-6
+			for _, f := range []float64{1e-4, 1e-5, 1e-6} {
+				lp, _ := s.Level(f, n)
+				lm, _ := s.Level(-f, n)
+				lin := (lp.Energy - lm.Energy) / (2 * f)
+				quadr := (lp.Energy + lm.Energy - 2*e0) / (2 * f * f)
+				if math.Abs(lin-d0) > 1e-13/f+2*c3*f*f+1e-12 {
+					t.Errorf("%s n=%d f=%g: (η(f) − η(−f))/2f = %.12g, zero-field dipole %.12g", name, n, f, lin, d0)
+				}
+				if math.Abs(quadr-c2) > 1e-13/(f*f)+1e-3*math.Abs(c2) {
+					t.Errorf("%s n=%d f=%g: (η(f) + η(−f) − 2η(0))/2f² = %.8g, at f = 1e-3 %.8g", name, n, f, quadr, c2)
+				}
+			}
+			for _, f := range []float64{1e-9, 1e-15, 1e-30, 1e-300} {
+				l, err := s.Level(f, n)
+				if err != nil {
+					t.Fatalf("%s n=%d f=%g: %v", name, n, f, err)
+				}
+				want := e0 + d0*f + c2*f*f
+				if math.Abs(l.Energy-want) > l.Err+l0[n-1].Err {
+					t.Errorf("%s n=%d f=%g: η = %.17g, zero-field series %.17g (Err %.2g)", name, n, f, l.Energy, want, l.Err)
+				}
+				if l.Gamma != 0 || l.GammaErr != gammaFloor {
+					t.Errorf("%s n=%d f=%g: Γ = %g ± %g, want 0 ± 1e-300", name, n, f, l.Gamma, l.GammaErr)
+				}
 			}
 		}
 	}

@@ -90,6 +90,11 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	rl := &out.real
 	eta, m := rl.eta, rl.m
+	if rl.evalEta != eta {
+		// Γ needs the solutions at the level itself.
+		rl.res = c.eval(eta, m, rl.S)
+		rl.evalEta = eta
+	}
 	L, R := &rl.res.L, &rl.res.R
 	v := rstate{u: dual{0, 0}, w: dual{1, 0}}
 	for j := 1; j < m; j++ {
@@ -102,6 +107,11 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	_, _, _, mu0 := c.layer(0)
 	lnScale := lnPrest - 2*zetaI + v.lg - L.lg
 	ratio := -2 * G / Fp // Γ = ratio · e^lnScale
+	if lnScale < math.Log(gammaFloor)-800 {
+		// Far below anything a float64 holds, whatever the prefactor.
+		out.lv.Gamma, out.lv.GammaErr = 0, gammaFloor
+		return "", nil
+	}
 	if !(ratio > 0) || math.IsNaN(lnScale) {
 		return "", fmt.Errorf("exact: level %d at f = %g: escape width of the wrong sign: %w", out.lv.N, c.f, tiltwell.ErrNoConvergence)
 	}
