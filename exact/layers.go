@@ -386,6 +386,9 @@ type calc struct {
 	n      int
 	f      float64
 	mirror bool
+	// forceBroad makes every quasi-bound level take the complex path
+	// (tests compare the two).
+	forceBroad bool
 }
 
 func newCalc(st tiltwell.Stack, f float64) calc {

@@ -137,7 +137,7 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	}
 	chi := math.Abs(chi1) + math.Abs(kappa2) + 1/sp
 	gc := math.Abs(g) * chi
-	if gc > narrowLimit {
+	if gc > narrowLimit || c.forceBroad {
 		return c.broad(out, g, chi1, kappa2)
 	}
 	eta2 := g * g * (kappa2 - chi1)
