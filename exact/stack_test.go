@@ -689,3 +689,46 @@ func TestStackBruteForce(t *testing.T) {
 		}
 	}
 }
+
+// TestStackGamow checks Γ in the deep-tunnelling limit against the
+// quasiclassical escape rate, the barrier's transmission over the
+// classical period (L. D. Landau and E. M. Lifshitz, Quantum Mechanics,
+// §50; from memory):
+//
+//	Γ_qc = D/T,   D = 4kκ/(k² + κ²) e^(−2S),   S = ∫κ dξ = (2/3)π q^(3/2)/f,
+//	T = ∫ π/√(η − V) dξ over the allowed part of the well,
+//
+// (μ = 1; in reduced units the speed is 2√(η − V)/π, and 4kκ/(k² + κ²) is
+// the transmission factor of the abrupt wall, with k and κ = π√q on either
+// side of it and q = v − f/2 − η the barrier's height above the level
+// there). Its own accuracy is O(1/S) (the quasiclassical connection at the
+// outer turning point) and O(1/κ); Γ is checked over 46 to 660 in 2S,
+// Γ from 1e-20 to 1e-285.
+func TestStackGamow(t *testing.T) {
+	t.Parallel()
+	const v = 1e4
+	s := Solver{Stack: mustWell(t, v, 1)}
+	for _, n := range []int{1, 3} {
+		for _, decades := range []float64{20, 40, 90, 185, 285} {
+			// f such that 2S is about decades·ln 10 at η ≈ 0.
+			f := 2.0 / 3 * math.Pi * math.Pow(v, 1.5) / (decades * math.Ln10 / 2)
+			l, err := s.Level(f, n)
+			if err != nil {
+				t.Fatal(err)
+			}
+			eta := l.Energy
+			xt := math.Min(1, 0.5+eta/f)
+			T := 2 * math.Pi / f * (math.Sqrt(eta+f/2) - math.Sqrt(math.Max(eta-f*(xt-0.5), 0)))
+			k := math.Pi * math.Sqrt(eta+f/2)
+			q := v - f/2 - eta
+			kap := math.Pi * math.Sqrt(q)
+			S := 2.0 / 3 * math.Pi * q * math.Sqrt(q) / f
+			// Γ/Γ_qc in logarithms, since Γ_qc itself may underflow.
+			lnQC := math.Log(4*k*kap/(k*k+kap*kap)/T) - 2*S
+			r := math.Exp(math.Log(l.Gamma) - lnQC)
+			if math.Abs(r-1) > 0.2/S+1e-3 {
+				t.Errorf("n=%d f=%.5g (2S = %.0f): Γ = %.6g, quasiclassical ratio %.6f", n, f, 2*S, l.Gamma, r)
+			}
+		}
+	}
+}
