@@ -47,13 +47,21 @@ const thickZeta = 20.0
 // maxTaylor is the most terms of one Taylor step.
 const maxTaylor = 40
 
+// maxSteps is the most Taylor steps one evaluation of the level equation
+// may take (a few milliseconds); a stack and field that would need more
+// (phases of 1e5 radians across the layers) are beyond the solver's
+// range.
+const maxSteps = 50000
+
 type rstate struct {
 	u, w  dual
 	lg    float64
 	nodes int
 	// steps counts Taylor steps and layer transfers, for the rounding
-	// estimate.
+	// estimate; over is set when a layer would have needed more than
+	// maxSteps.
 	steps int
+	over  bool
 }
 
 // crossed reports whether φ passes through a zero going from a value
@@ -85,7 +93,7 @@ func (st *rstate) renorm() {
 // recorder receives the state at every step point while a wavefunction
 // is being built; nil while levels are being solved.
 type recorder interface {
-	point(xi float64, st *rstate, seg segInfo)
+	point(xi float64, st rstate, seg segInfo)
 }
 
 // segInfo describes the stretch of layer that begins at a recorded
@@ -159,10 +167,12 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg seg
 	q1 := v + f*(x1-0.5) - eta
 	lmax := p2 * mu * max(math.Abs(q0), math.Abs(q1))
 	scale := max(math.Sqrt(lmax), math.Cbrt(p2*mu*f))
-	n := int(math.Ceil(math.Abs(L) * scale / stepTheta))
-	if n < 1 {
-		n = 1
+	nf := math.Ceil(math.Abs(L) * scale / stepTheta)
+	if !(nf <= maxSteps) || st.steps+int(nf) > maxSteps || st.over {
+		st.over = true
+		return
 	}
+	n := max(int(nf), 1)
 	h := L / float64(n)
 	beta := p2 * mu * f
 	for i := range n {
@@ -172,7 +182,7 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg seg
 			if i == n-1 {
 				seg.to = x1
 			}
-			rec.point(x, st, seg)
+			rec.point(x, *st, seg)
 		}
 		hh := h
 		if i == n-1 {
@@ -422,7 +432,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	if f == 0 {
 		if rec != nil {
 			seg.kind, seg.to = segZero, x1
-			rec.point(x0, st, seg)
+			rec.point(x0, *st, seg)
 		}
 		zeroFieldLayer(st, x1-x0, v, mu, eta)
 		return
@@ -459,14 +469,14 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 		}
 		if rec != nil {
 			seg.to = hi
-			rec.point(xt, st, seg)
+			rec.point(xt, *st, seg)
 		}
 		thickRight(st, &a, &b, gBi)
 		return
 	}
 	if rec != nil {
 		seg.to = xt
-		rec.point(hi, st, seg)
+		rec.point(hi, *st, seg)
 	}
 	thickLeft(st, &a, &b, gAi)
 	if xt > lo {

@@ -56,7 +56,7 @@ type wavePiece struct {
 // waveRecorder collects the pieces while a solution is carried.
 type waveRecorder struct{ pieces []wavePiece }
 
-func (r *waveRecorder) point(xi float64, st *rstate, seg segInfo) {
+func (r *waveRecorder) point(xi float64, st rstate, seg segInfo) {
 	a, b := min(xi, seg.to), max(xi, seg.to)
 	r.pieces = append(r.pieces, wavePiece{a: a, b: b, x: xi, u: st.u.v, w: st.w.v, lg: st.lg, seg: seg})
 }
@@ -472,6 +472,6 @@ func (s Solver) solveOneCalc(f float64, n int) (stackLevel, calc, error) {
 		return stackLevel{}, calc{}, err
 	}
 	c := newCalc(s.Stack, f)
-	sl, err := c.solveWithCount(n, f)
+	sl, err := c.nth(n, f)
 	return sl, c, err
 }

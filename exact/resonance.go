@@ -174,13 +174,20 @@ func (c *calc) evalAll(a *allEval, eta, ref float64) {
 // level's wavefunction is largest: both solutions reach it growing
 // (stably), and the level equation is least steep there.
 func (c *calc) flattest(a *allEval) (evalResult, int) {
-	best, m := math.Inf(1), 1
+	best, m := math.Inf(1), 0
 	var res evalResult
 	for i := 1; i < c.n; i++ {
 		r := c.match(a.L[i], a.R[i], a.S[i])
-		if r.Dp < best {
+		// The slope is positive wherever it is computed faithfully; a
+		// slope that is not is rounding noise and disqualifies the
+		// interface.
+		if r.Dp > 0 && r.Dp < best {
 			best, m, res = r.Dp, i, r
 		}
+	}
+	if m == 0 {
+		m = c.matchPoint()
+		res = c.match(a.L[m], a.R[m], a.S[m])
 	}
 	return res, m
 }
@@ -199,6 +206,9 @@ func (c *calc) match(L, R rstate, S float64) evalResult {
 	res.D = float64(L.nodes+nr)*math.Pi + aL - aR
 	res.Dp = aLd - aRd
 	res.errD = 4 * eps * (4 + float64(L.steps+R.steps) + math.Abs(res.D))
+	if L.over || R.over {
+		res.errD = math.Inf(1)
+	}
 	return res
 }
 
@@ -299,6 +309,9 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			next, ok = newtonNext(r.D-target, r.Dp)
 		}
 		evalEta := eta
+		if math.IsInf(r.errD, 1) {
+			return realLevel{}, fmt.Errorf("exact: level %d at f = %g: the stack's layers hold more than %d Taylor steps at this field: %w", n, c.f, maxSteps, tiltwell.ErrOutOfRange)
+		}
 		g := r.D - target
 		if traceNewton {
 			fmt.Printf("   it=%d m=%d η=%.17g g=%.3g Dp=%.3g [%.6g, %.6g]\n", it, m, eta, g, r.Dp, lo, hi)
@@ -316,7 +329,9 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 				// Match where the level lives.
 				r, m = c.flattest(ae)
 				S = ae.S[m]
-				err = max(err, 2*r.errD/r.Dp+2*ulp)
+				if r.Dp > 0 {
+					err = max(err, 2*r.errD/r.Dp+2*ulp)
+				}
 			}
 			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it}, nil
 		}

@@ -732,3 +732,106 @@ func TestStackGamow(t *testing.T) {
 		}
 	}
 }
+
+// fuzzStack builds a stack from fuzz bytes: 3 to 7 layers with widths,
+// band edges and masses spread over many decades, and the reference well
+// among the inner layers.
+func fuzzStack(data []byte) (tiltwell.Stack, error) {
+	next := func() float64 {
+		if len(data) == 0 {
+			return 0.5
+		}
+		b := data[0]
+		data = data[1:]
+		return float64(b) / 255
+	}
+	n := 3 + int(next()*4.99)
+	ref := 1 + int(next()*float64(n-2)*0.999)
+	layers := make([]tiltwell.Layer, n)
+	for i := range layers {
+		if i == ref {
+			layers[i] = tiltwell.Layer{Width: 1, Mass: 1}
+			continue
+		}
+		// Edges from −1e3 to 1e6 (mostly positive), masses 0.01 to 100,
+		// widths 0.01 to 10.
+		e := math.Pow(10, -1+7*next())
+		if next() < 0.25 {
+			e = -e / 1e3
+		}
+		l := tiltwell.Layer{Edge: e, Mass: math.Pow(10, -2+4*next())}
+		if i > 0 && i < n-1 {
+			l.Width = math.Pow(10, -2+3*next())
+		}
+		layers[i] = l
+	}
+	return tiltwell.NewStack(layers, ref)
+}
+
+// FuzzStackLevels checks, for random stacks, fields and level counts,
+// that Levels never panics, returns no NaN or infinite numbers, gives
+// ordered levels with Γ ≥ 0, and errors that wrap the root sentinels.
+func FuzzStackLevels(f *testing.F) {
+	f.Add([]byte{0, 128, 200, 90, 40, 200, 90, 40}, 1.0, 3)
+	f.Add([]byte{255, 50, 180, 10, 128, 30, 70, 240, 0, 0, 90, 200, 35}, -2.5, 5)
+	f.Add([]byte{100, 0, 255, 255, 255, 0}, 0.0, 2)
+	f.Add([]byte{10, 10, 10}, 1e-12, 1)
+	f.Fuzz(func(t *testing.T, data []byte, field float64, k int) {
+		st, err := fuzzStack(data)
+		if err != nil {
+			return
+		}
+		if k < -1 || k > 8 {
+			k = k%8 + 1
+		}
+		if math.Abs(field) > 2e3 && !math.IsInf(field, 0) {
+			field = math.Mod(field, 2e3)
+		}
+		ls, err := Solver{Stack: st}.Levels(nil, field, k)
+		if err != nil {
+			known := false
+			for _, e := range []error{tiltwell.ErrField, tiltwell.ErrLevel, tiltwell.ErrOutOfRange, tiltwell.ErrNoConvergence} {
+				known = known || errors.Is(err, e)
+			}
+			if !known {
+				t.Fatalf("%v f=%g k=%d: error %v wraps no sentinel", st, field, k, err)
+			}
+		}
+		prev := math.Inf(-1)
+		for i, l := range ls {
+			bad := func(x float64) bool { return math.IsNaN(x) || math.IsInf(x, 0) }
+			if l.N != i+1 || bad(l.Energy) || bad(l.Err) || bad(l.Gamma) || bad(l.GammaErr) || l.Err < 0 || l.Gamma < 0 || l.GammaErr < 0 {
+				t.Fatalf("%v f=%g: level %d = %+v", st, field, i+1, l)
+			}
+			if l.Energy < prev-l.Err {
+				t.Fatalf("%v f=%g: level %d at %.17g below level %d at %.17g", st, field, i+1, l.Energy, i, prev)
+			}
+			prev = l.Energy
+		}
+	})
+}
+
+// TestStackAllocs checks that Levels does not allocate in steady state,
+// for narrow and broad resonances, a bound well and a five-layer stack.
+func TestStackAllocs(t *testing.T) {
+	if underRace {
+		t.Skip("sync.Pool drops items under -race")
+	}
+	well := mustWell(t, 4.3, 1.37)
+	clad := mustStack(t, []tiltwell.Layer{{Edge: 4.3, Mass: 1.37}, {Width: 0.1, Edge: 9, Mass: 1.5}, {Width: 1, Mass: 1}, {Width: 0.1, Edge: 9, Mass: 1.5}, {Edge: 4.3, Mass: 1.37}}, 2)
+	for _, c := range []struct {
+		st tiltwell.Stack
+		f  float64
+		k  int
+	}{{well, 0, 3}, {well, 1, 2}, {well, 3, 2}, {well, -2, 2}, {clad, 1, 2}, {clad, 0, 2}} {
+		dst := make([]tiltwell.Level, 0, c.k)
+		s := Solver{Stack: c.st}
+		var err error
+		if dst, err = s.Levels(dst, c.f, c.k); err != nil {
+			t.Fatal(err)
+		}
+		if a := testing.AllocsPerRun(20, func() { dst, _ = s.Levels(dst, c.f, c.k) }); a != 0 {
+			t.Errorf("%v f=%g k=%d: %v allocations per call", c.st, c.f, c.k, a)
+		}
+	}
+}

@@ -36,7 +36,10 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 	// level n is not confined.
 	m := c.matchPoint()
 	// A level within rounding of the ceiling is not confined.
-	rhi := c.eval(hi, m, c.scaleAt(m, hi))
+	rhi, err := c.evalChecked(n, hi, m)
+	if err != nil {
+		return stackLevel{}, "", err
+	}
 	if !(rhi.D-target > rhi.errD) {
 		if hi == ec {
 			return stackLevel{}, "above the barrier", nil
@@ -45,9 +48,15 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 		// barriers): widen the bound by its rounding width, and only
 		// then fall back on the ceiling.
 		hi = min(ec, hi+max(16*rhi.errD/max(rhi.Dp, 1e-300), 8*eps*math.Abs(hi), 1e-300))
-		if rhi = c.eval(hi, m, c.scaleAt(m, hi)); !(rhi.D-target > rhi.errD) {
+		if rhi, err = c.evalChecked(n, hi, m); err != nil {
+			return stackLevel{}, "", err
+		}
+		if !(rhi.D-target > rhi.errD) {
 			hi = ec
-			if rhi = c.eval(hi, m, c.scaleAt(m, hi)); !(rhi.D-target > rhi.errD) {
+			if rhi, err = c.evalChecked(n, hi, m); err != nil {
+				return stackLevel{}, "", err
+			}
+			if !(rhi.D-target > rhi.errD) {
 				return stackLevel{}, "above the barrier", nil
 			}
 		}
@@ -72,6 +81,16 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 	}
 	why, err := c.escape(&out)
 	return out, why, err
+}
+
+// evalChecked evaluates the level equation for level n at η, with an error
+// if the layers need more Taylor steps than one evaluation may take.
+func (c *calc) evalChecked(n int, eta float64, m int) (evalResult, error) {
+	r := c.eval(eta, m, c.scaleAt(m, eta))
+	if math.IsInf(r.errD, 1) {
+		return r, fmt.Errorf("exact: level %d at f = %g: the stack's layers hold more than %d Taylor steps at this field: %w", n, c.f, maxSteps, tiltwell.ErrOutOfRange)
+	}
+	return r, nil
 }
 
 // escape fills in Γ (and the second-order shift of η_r) of a level of
@@ -148,6 +167,58 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	return "", nil
 }
 
+// levelIter walks the levels of a stack upwards, carrying what the next
+// level's start and its confinement test need. Levels, Level,
+// Wavefunction and Dipole all walk with it, so that they agree to the bit.
+type levelIter struct {
+	n              int
+	e1, d1, e2, d2 float64 // the last two levels' η₀ and spacings
+	floor          float64 // η₀ of the level below
+	prevR          float64 // η_r of the level below
+}
+
+func newLevelIter() levelIter {
+	return levelIter{floor: math.Inf(-1), prevR: math.Inf(-1)}
+}
+
+// next solves the next level. It reports why the level is not confined
+// (empty if it is):
+//
+//   - η_r + Err is not below the ceiling (the lower of the outer band
+//     edges at their interfaces);
+//   - f ≠ 0 and Γ is not below the local level spacing π/(dD/dη);
+//   - f ≠ 0 and Γ is not below the distance η_r − η_r(n−1) to the level
+//     below (the two are not resolved).
+func (c *calc) next(it *levelIter) (stackLevel, notConfined, error) {
+	it.n++
+	n := it.n
+	hint := math.NaN()
+	switch {
+	case n >= 3:
+		// Cubic Hermite extrapolation in n, dη/dn = π/(dD/dη).
+		hint = 5*it.e2 - 4*it.e1 + 2*it.d2 + 4*it.d1
+	case n == 2:
+		hint = it.e1 + it.d1
+	}
+	sl, why, err := c.solveStackLevel(n, it.floor, hint)
+	if err != nil || why != "" {
+		return sl, why, err
+	}
+	if c.f != 0 {
+		switch g := sl.lv.Gamma; {
+		case !(g < sl.spacing):
+			return sl, notConfined(fmt.Sprintf("its width Γ = %.3g exceeds the level spacing %.3g", g, sl.spacing)), nil
+		case !(g < sl.lv.Energy-it.prevR):
+			return sl, notConfined(fmt.Sprintf("its width Γ = %.3g exceeds its distance %.3g to the level below", g, sl.lv.Energy-it.prevR)), nil
+		}
+	}
+	it.e2, it.d2 = it.e1, it.d1
+	it.e1, it.d1 = sl.real.eta, sl.spacing
+	it.floor = sl.real.eta
+	it.prevR = sl.lv.Energy
+	return sl, "", nil
+}
+
 // stackLevels appends the lowest k levels of the stack at f to dst.
 func (s Solver) stackLevels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
 	dst = dst[:0]
@@ -155,26 +226,15 @@ func (s Solver) stackLevels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.
 		return dst, err
 	}
 	c := newCalc(s.Stack, f)
-	var e1, d1, e2, d2 float64
-	floor := math.Inf(-1)
+	it := newLevelIter()
 	for n := 1; n <= k; n++ {
-		hint := math.NaN()
-		switch {
-		case n >= 3:
-			hint = 5*e2 - 4*e1 + 2*d2 + 4*d1
-		case n == 2:
-			hint = e1 + d1
-		}
-		sl, why, err := c.solveStackLevel(n, floor, hint)
+		sl, why, err := c.next(&it)
 		if err != nil {
 			return dst[:0], err
 		}
 		if why != "" {
 			return dst, &tiltwell.ConfinedError{Method: "exact", F: f, Asked: k, Confined: n - 1, Why: fmt.Sprintf("level %d: %s", n, why)}
 		}
-		e2, d2 = e1, d1
-		e1, d1 = sl.real.eta, sl.spacing
-		floor = sl.real.eta
 		dst = append(dst, sl.lv)
 	}
 	return dst, nil
@@ -186,23 +246,21 @@ func (s Solver) stackLevel(f float64, n int) (tiltwell.Level, error) {
 	return sl.lv, err
 }
 
-// solveWithCount solves level n alone. If it is not confined it counts the
-// confined levels below it for the [tiltwell.ConfinedError].
-func (c *calc) solveWithCount(n int, f float64) (stackLevel, error) {
-	sl, why, err := c.solveStackLevel(n, math.Inf(-1), math.NaN())
-	if err != nil {
-		return stackLevel{}, err
-	}
-	if why == "" {
-		return sl, nil
-	}
-	count, floor := 0, math.Inf(-1)
-	for k := 1; k < n; k++ {
-		s2, w2, e2 := c.solveStackLevel(k, floor, math.NaN())
-		if e2 != nil || w2 != "" {
-			break
+// nth solves levels 1..n and returns level n, or a ConfinedError saying how
+// many are confined.
+func (c *calc) nth(n int, f float64) (stackLevel, error) {
+	it := newLevelIter()
+	for k := 1; k <= n; k++ {
+		sl, why, err := c.next(&it)
+		if err != nil {
+			return stackLevel{}, err
 		}
-		count, floor = k, s2.real.eta
+		if why != "" {
+			return stackLevel{}, &tiltwell.ConfinedError{Method: "exact", F: f, Asked: n, Confined: k - 1, Why: fmt.Sprintf("level %d: %s", k, why)}
+		}
+		if k == n {
+			return sl, nil
+		}
 	}
-	return stackLevel{}, &tiltwell.ConfinedError{Method: "exact", F: f, Asked: n, Confined: count, Why: fmt.Sprintf("level %d: %s", n, why)}
+	panic("unreachable")
 }
