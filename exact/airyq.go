@@ -81,6 +81,35 @@ func newLayerScale(mu, f float64) layerScale {
 	return layerScale{mu: mu, f: f, s: a * cf, c: a / (cf * cf)}
 }
 
+// forbOne is forb for a boundary condition that needs only one of the
+// two log-derivatives: Bi's (and, in the table range, the scaled functions
+// the modulus needs) if bi, else Ai's.
+func (ls *layerScale) forbOne(q float64, bi bool) fpoint {
+	p := fpoint{q: q}
+	z := ls.c * q
+	if z < posStart {
+		return ls.forb(q)
+	}
+	p.asym = true
+	sq := math.Sqrt(q)
+	rm := math.Sqrt(ls.mu)
+	p.kap = math.Pi * rm * sq
+	p.t = 1.5 * ls.f / (math.Pi * rm * sq) / q
+	sigma := -1.0
+	if bi {
+		sigma = 1
+	}
+	r, _ := seriesEval(&ratioR, p.t, sigma)
+	d := 1.5 * math.Pi / (rm * sq) * tailSeries(p.t, sigma) * (r + 1)
+	km := p.kap / ls.mu
+	if bi {
+		p.lg = dual{km * r, d}
+	} else {
+		p.ld = dual{-km * r, d}
+	}
+	return p
+}
+
 // forb returns the Airy data at the point of the layer where the deficit is
 // q ≥ 0.
 func (ls *layerScale) forb(q float64) fpoint {

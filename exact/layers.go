@@ -193,6 +193,17 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg seg
 	}
 }
 
+// allowedPart carries st across an allowed stretch at f > 0: by the Airy
+// transfer (milnePart) when the stretch spans at least one unit of z and
+// no wavefunction is being recorded, by Taylor steps otherwise.
+func allowedPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg segInfo, ls layerScale) {
+	if rec == nil && ls.s*math.Abs(x1-x0) >= 1 && ls.c*(eta-v-f*(min(x0, x1)-0.5)) < 1e8 {
+		milnePart(st, x0, x1, v, mu, f, eta, &ls)
+		return
+	}
+	taylorPart(st, x0, x1, v, mu, f, eta, rec, seg)
+}
+
 // zeroFieldLayer carries st across a whole layer of width w (w < 0 for
 // the leftward direction) at f = 0.
 func zeroFieldLayer(st *rstate, w, v, mu, eta float64) {
@@ -399,11 +410,38 @@ type calc struct {
 	// forceBroad makes every quasi-bound level take the complex path
 	// (tests compare the two).
 	forceBroad bool
+	// scales caches the layer scales of the first layers and of the last
+	// one (scales[cachedScales]).
+	scales [cachedScales + 1]layerScale
 }
+
+// cachedScales is how many layers' scales a calc keeps.
+const cachedScales = 8
 
 func newCalc(st tiltwell.Stack, f float64) calc {
 	af, mir := tiltwell.Fold(f)
-	return calc{st: st, n: st.Len(), f: af, mirror: mir}
+	c := calc{st: st, n: st.Len(), f: af, mirror: mir}
+	if af > 0 {
+		for j := range min(c.n, cachedScales) {
+			_, _, _, mu := c.layer(j)
+			c.scales[j] = newLayerScale(mu, af)
+		}
+		_, _, _, mu := c.layer(c.n - 1)
+		c.scales[cachedScales] = newLayerScale(mu, af)
+	}
+	return c
+}
+
+// scale returns the layer scale of layer j (f > 0).
+func (c *calc) scale(j int) layerScale {
+	switch {
+	case j < cachedScales:
+		return c.scales[j]
+	case j == c.n-1:
+		return c.scales[cachedScales]
+	}
+	_, _, _, mu := c.layer(j)
+	return newLayerScale(mu, c.f)
 }
 
 // layer returns the span, band edge and mass ratio of layer j of the
@@ -442,7 +480,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	qhi := v + f*(hi-0.5) - eta
 	if qhi <= 0 {
 		// Allowed throughout.
-		taylorPart(st, x0, x1, v, mu, f, eta, rec, seg)
+		allowedPart(st, x0, x1, v, mu, f, eta, rec, seg, c.scale(j))
 		return
 	}
 	// The forbidden part [xt, hi] with xt the turning point (or lo).
@@ -451,12 +489,23 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 		xt = min(max(lo-qlo/f, lo), hi)
 		qlo = 0
 	}
-	ls := newLayerScale(mu, f)
+	ls := c.scale(j)
 	// ζ grows across the forbidden part by about (2/3)π√μ L(q₀+√(q₀q₁)+q₁)/(√q₀+√q₁).
 	L := hi - xt
 	s0, s1 := math.Sqrt(qlo), math.Sqrt(qhi)
 	dzeta := (2.0 / 3) * math.Pi * math.Sqrt(mu) * L * (qlo + s0*s1 + qhi) / (s0 + s1)
 	if !(dzeta >= thickZeta) {
+		if xt > lo {
+			// An allowed stretch and a thin forbidden one.
+			if dir > 0 {
+				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, c.scale(j))
+				taylorPart(st, xt, hi, v, mu, f, eta, rec, seg)
+			} else {
+				taylorPart(st, hi, xt, v, mu, f, eta, rec, seg)
+				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, c.scale(j))
+			}
+			return
+		}
 		taylorPart(st, x0, x1, v, mu, f, eta, rec, seg)
 		return
 	}
@@ -465,7 +514,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	seg.kind, seg.ls, seg.a, seg.b, seg.la, seg.lb = segThick, ls, a, b, xt, hi
 	if dir > 0 {
 		if xt > lo {
-			taylorPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v})
+			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j))
 		}
 		if rec != nil {
 			seg.to = hi
@@ -480,6 +529,6 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	}
 	thickLeft(st, &a, &b, gAi)
 	if xt > lo {
-		taylorPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v})
+		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j))
 	}
 }

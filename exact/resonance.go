@@ -33,8 +33,8 @@ func (c *calc) leftBC(eta float64) (lam dual, lnPrest, zeta float64) {
 		return dual{k / mu, -math.Pi * math.Pi / (2 * k)}, 0, 0
 	}
 	q := max(v+c.f*(hi-0.5)-eta, 0)
-	ls := newLayerScale(mu, c.f)
-	p := ls.forb(q)
+	ls := c.scale(0)
+	p := ls.forbOne(q, true)
 	return ls.modulusBC(&p)
 }
 
@@ -47,8 +47,8 @@ func (c *calc) rightBC(eta float64) dual {
 		return dual{-k / mu, math.Pi * math.Pi / (2 * k)}
 	}
 	q := max(v+c.f*(lo-0.5)-eta, 0)
-	ls := newLayerScale(mu, c.f)
-	p := ls.forb(q)
+	ls := c.scale(c.n - 1)
+	p := ls.forbOne(q, false)
 	return p.ld
 }
 
@@ -91,8 +91,9 @@ func (c *calc) eval(eta float64, m int, S float64) evalResult {
 // bounds returns, for level n: the lowest band edge vmin of the problem on
 // [ξ₁, ∞) (every level lies above it), the confinement ceiling ec (the
 // lower of the outer band edges at their interfaces: levels must lie
-// below it), and a rigorous upper bound ub on the n-th level from
-// Dirichlet walls around one inner layer (min–max).
+// below it), and a rigorous upper bound ub on the n-th level: the
+// Dirichlet levels v + n²/(μw²) of an inner layer raised by the largest
+// field potential in it (min–max).
 func (c *calc) bounds(n int) (vmin, ec, ub float64) {
 	f := c.f
 	_, x1, v0, _ := c.layer(0)
@@ -106,12 +107,6 @@ func (c *calc) bounds(n int) (vmin, ec, ub float64) {
 		vmin = min(vmin, v+f*(lo-0.5))
 		w := hi - lo
 		ub = min(ub, v+nn/(mu*w*w)+f*(hi-0.5))
-	}
-	if r := c.ref(); r > 0 && n <= MaxLevels && f <= MaxField {
-		// The tilted infinite well on the reference layer.
-		if lv, _, err := level(newScale(f), n, math.Inf(-1), math.NaN()); err == nil {
-			ub = min(ub, lv.Energy+lv.Err+4*eps*(nn+f))
-		}
 	}
 	return vmin, ec, ub
 }
@@ -233,6 +228,17 @@ type realLevel struct {
 	m       int
 	S       float64
 	its     int
+	// The Wronskian slope F_r′ of the evaluation before last, at prevEta,
+	// scaled to res's log-scales (NaN if there was none at the same
+	// matching point): with res's it gives F_r″.
+	prevEta, prevFp float64
+}
+
+// wronskSlope returns F_r′ = d/dη (φ_L w_R − w_L φ_R) from the duals of r's
+// solutions (in their scaled units).
+func wronskSlope(r *evalResult) float64 {
+	L, R := &r.L, &r.R
+	return L.u.d*R.w.v + L.u.v*R.w.d - L.w.d*R.u.v - L.w.v*R.u.d
 }
 
 // solveReal finds level n of the real problem inside (lo, hi), where
@@ -267,6 +273,8 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	var prevEta, prevDp float64
 	havePrev := false
 	side := 0 // Illinois: which end was kept last
+	// The last evaluation's η, F_r′ and log-scale, for F_r″.
+	lastEta, lastFp, lastLg, lastM := math.NaN(), math.NaN(), 0.0, -1
 	// newtonNext returns the θ-Newton step from η for the equation
 	// value g with slope dp, and whether it lies inside the bracket.
 	newtonNext := func(g, dp float64) (float64, bool) {
@@ -323,6 +331,12 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 		}
 		dp := r.Dp
 		ulp := eps * max(1, math.Abs(eta))
+		// F_r′ of the evaluation before this one, in this one's scale.
+		pEta, pFp := lastEta, math.NaN()
+		if lastM == m {
+			pFp = lastFp * math.Exp(lastLg-(r.L.lg+r.R.lg))
+		}
+		lastEta, lastFp, lastLg, lastM = eta, wronskSlope(&r), r.L.lg+r.R.lg, m
 		done := func(eta, err float64) (realLevel, error) {
 			evalEta := evalEta
 			if all {
@@ -333,7 +347,7 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 					err = max(err, 2*r.errD/r.Dp+2*ulp)
 				}
 			}
-			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it}, nil
+			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it, prevEta: pEta, prevFp: pFp}, nil
 		}
 		if dp > 0 && !math.IsInf(dp, 0) {
 			step := g / dp

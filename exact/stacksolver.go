@@ -25,41 +25,31 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 	vmin, ec, ub := c.bounds(n)
 	lo := max(vmin, floor)
 	hi := min(ec, ub)
-	guess := hint
-	if !(guess > lo && guess < hi) {
-		guess = mid(lo, hi)
-	}
 	if !(hi > lo) {
 		return stackLevel{}, "the band edges leave no room below the barrier", nil
 	}
-	// The ceiling: if the level equation has not reached (n−1)π there,
-	// level n is not confined.
-	m := c.matchPoint()
-	// A level within rounding of the ceiling is not confined.
-	rhi, err := c.evalChecked(n, hi, m)
-	if err != nil {
-		return stackLevel{}, "", err
+	guess := hint
+	if !(guess > lo && guess < hi) {
+		guess = c.model(n)
 	}
-	if !(rhi.D-target > rhi.errD) {
-		if hi == ec {
-			return stackLevel{}, "above the barrier", nil
-		}
-		// The level is within rounding of its Dirichlet bound (tall
-		// barriers): widen the bound by its rounding width, and only
-		// then fall back on the ceiling.
-		hi = min(ec, hi+max(16*rhi.errD/max(rhi.Dp, 1e-300), 8*eps*math.Abs(hi), 1e-300))
-		if rhi, err = c.evalChecked(n, hi, m); err != nil {
+	if !(guess > lo && guess < hi) {
+		guess = mid(lo, hi)
+	}
+	// D − (n−1)π at the top of the bracket: below the Dirichlet bound a
+	// level is certain (min–max), and only a stand-in is needed; at the
+	// ceiling it must be evaluated, and a level within rounding of the
+	// ceiling is not confined.
+	ghi := math.Pi / 2
+	if hi == ec {
+		m := c.matchPoint()
+		rhi, err := c.evalChecked(n, hi, m)
+		if err != nil {
 			return stackLevel{}, "", err
 		}
 		if !(rhi.D-target > rhi.errD) {
-			hi = ec
-			if rhi, err = c.evalChecked(n, hi, m); err != nil {
-				return stackLevel{}, "", err
-			}
-			if !(rhi.D-target > rhi.errD) {
-				return stackLevel{}, "above the barrier", nil
-			}
+			return stackLevel{}, "above the barrier", nil
 		}
+		ghi = rhi.D - target
 	}
 	// D is −π exactly at the level below; below the lowest band edge it
 	// lies in (−π, 0).
@@ -67,7 +57,7 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 	if floor < vmin {
 		glo = -(float64(n) - 0.5) * math.Pi
 	}
-	rl, err := c.solveReal(n, lo, hi, glo, rhi.D-target, guess)
+	rl, err := c.solveReal(n, lo, hi, glo, ghi, guess)
 	if err != nil {
 		return stackLevel{}, "", err
 	}
@@ -109,20 +99,35 @@ func (c *calc) evalChecked(n int, eta float64, m int) (evalResult, error) {
 func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	rl := &out.real
 	eta, m := rl.eta, rl.m
-	if rl.evalEta != eta {
-		// Γ needs the solutions at the level itself.
+	sp := out.spacing
+	// The pieces are evaluated at evalEta; the level is the Newton step
+	// δ beyond it (δ ≈ 1e-8 when the iteration stopped on quadratic
+	// convergence). ln Γ and κ₂ are carried over δ to first order, with
+	// F_r″ from the last two evaluations, when those are far enough apart
+	// for the difference to be accurate; otherwise the level equation is
+	// evaluated again at the level.
+	delta := eta - rl.evalEta
+	Fp := wronskSlope(&rl.res)
+	fpp := math.NaN() // F_r″/F_r′
+	if d := rl.evalEta - rl.prevEta; !math.IsNaN(rl.prevFp) && math.Abs(d) > 1e-7*sp && math.Abs(d) < 0.1*sp {
+		fpp = (Fp - rl.prevFp) / (d * Fp)
+	}
+	if delta != 0 && (math.IsNaN(fpp) || math.Abs(delta) > 1e-6*sp) {
 		rl.res = c.eval(eta, m, rl.S)
 		rl.evalEta = eta
+		rl.prevFp = math.NaN()
+		delta = 0
+		Fp = wronskSlope(&rl.res)
+		fpp = math.NaN()
 	}
 	L, R := &rl.res.L, &rl.res.R
 	v := rstate{u: dual{0, 0}, w: dual{1, 0}}
 	for j := 1; j < m; j++ {
-		c.cross(&v, j, 1, eta, nil)
+		c.cross(&v, j, 1, rl.evalEta, nil)
 	}
-	Fp := L.u.d*R.w.v + L.u.v*R.w.d - L.w.d*R.u.v - L.w.v*R.u.d
 	G := v.u.v*R.w.v - v.w.v*R.u.v
 	Gd := v.u.d*R.w.v + v.u.v*R.w.d - v.w.d*R.u.v - v.w.v*R.u.d
-	lam, lnPrest, zetaI := c.leftBC(eta)
+	lam, lnPrest, zetaI := c.leftBC(rl.evalEta)
 	_, _, _, mu0 := c.layer(0)
 	lnScale := lnPrest - 2*zetaI + v.lg - L.lg
 	ratio := -2 * G / Fp // Γ = ratio · e^lnScale
@@ -134,8 +139,12 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	if !(ratio > 0) || math.IsNaN(lnScale) {
 		return "", fmt.Errorf("exact: level %d at f = %g: escape width of the wrong sign: %w", out.lv.N, c.f, tiltwell.ErrNoConvergence)
 	}
-	lnGamma := math.Log(ratio) + lnScale
+	// χ₁ = (PG)′/(PG), with P′/P = 2μΛ/f (P ∝ 1/M²).
 	chi1 := 2*mu0*lam.v/c.f + Gd/G
+	lnGamma := math.Log(ratio) + lnScale
+	if delta != 0 {
+		lnGamma += delta * (chi1 - fpp)
+	}
 	steps := float64(L.steps + R.steps + v.steps)
 	relRound := 8*eps*(4+steps) + 2*eps*(math.Abs(lnPrest)+2*zetaI+math.Abs(v.lg)+math.Abs(L.lg))
 	if lnGamma < math.Log(gammaFloor) {
@@ -144,15 +153,16 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	}
 	gamma := math.Exp(lnGamma)
 	g := -gamma / 2
-	// κ₂ from F_r′ at a nearby η, when the second-order shift can matter.
+	// κ₂ = F_r″/(2F_r′), when the second-order shift can matter.
 	kappa2 := 0.0
-	sp := out.spacing
 	if math.Abs(g)*(math.Abs(chi1)+1/sp) > 1e-9 {
-		h := 1e-6 * sp
-		r2 := c.eval(eta+h, m, rl.S)
-		Fp2 := r2.L.u.d*r2.R.w.v + r2.L.u.v*r2.R.w.d - r2.L.w.d*r2.R.u.v - r2.L.w.v*r2.R.u.d
-		Fp2 *= math.Exp(r2.L.lg + r2.R.lg - L.lg - R.lg)
-		kappa2 = (Fp2 - Fp) / (2 * h * Fp)
+		if math.IsNaN(fpp) {
+			h := 1e-6 * sp
+			r2 := c.eval(rl.evalEta+h, m, rl.S)
+			Fp2 := wronskSlope(&r2) * math.Exp(r2.L.lg+r2.R.lg-L.lg-R.lg)
+			fpp = (Fp2 - Fp) / (h * Fp)
+		}
+		kappa2 = fpp / 2
 	}
 	chi := math.Abs(chi1) + math.Abs(kappa2) + 1/sp
 	gc := math.Abs(g) * chi
@@ -163,7 +173,11 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	out.lv.Energy = eta + eta2
 	out.lv.Err = rl.err + 4*math.Abs(eta2)*gc + g*g*chi*gc
 	out.lv.Gamma = gamma
-	out.lv.GammaErr = gamma * (relRound + (math.Abs(chi1)+2*math.Abs(kappa2))*rl.err + 4*gc*gc)
+	// Rounding, the level's own error carried through d ln Γ/dη, the
+	// neglected third order, and the first-order carry over δ (its
+	// second-order remainder).
+	carry := delta * delta * chi * chi
+	out.lv.GammaErr = gamma * (relRound + (math.Abs(chi1)+2*math.Abs(kappa2))*rl.err + 4*gc*gc + carry)
 	return "", nil
 }
 
@@ -175,10 +189,11 @@ type levelIter struct {
 	e1, d1, e2, d2 float64 // the last two levels' η₀ and spacings
 	floor          float64 // η₀ of the level below
 	prevR          float64 // η_r of the level below
+	merr           float64 // η₀ − model of the level below (NaN if none)
 }
 
 func newLevelIter() levelIter {
-	return levelIter{floor: math.Inf(-1), prevR: math.Inf(-1)}
+	return levelIter{floor: math.Inf(-1), prevR: math.Inf(-1), merr: math.NaN()}
 }
 
 // next solves the next level. It reports why the level is not confined
@@ -193,7 +208,13 @@ func (c *calc) next(it *levelIter) (stackLevel, notConfined, error) {
 	it.n++
 	n := it.n
 	hint := math.NaN()
+	mdl := c.model(n)
 	switch {
+	case !math.IsNaN(mdl) && !math.IsNaN(it.merr):
+		// The model, corrected by its error on the level below.
+		hint = mdl + it.merr
+	case !math.IsNaN(mdl):
+		hint = mdl
 	case n >= 3:
 		// Cubic Hermite extrapolation in n, dη/dn = π/(dD/dη).
 		hint = 5*it.e2 - 4*it.e1 + 2*it.d2 + 4*it.d1
@@ -216,6 +237,7 @@ func (c *calc) next(it *levelIter) (stackLevel, notConfined, error) {
 	it.e1, it.d1 = sl.real.eta, sl.spacing
 	it.floor = sl.real.eta
 	it.prevR = sl.lv.Energy
+	it.merr = sl.real.eta - mdl
 	return sl, "", nil
 }
 
@@ -263,4 +285,75 @@ func (c *calc) nth(n int, f float64) (stackLevel, error) {
 		}
 	}
 	panic("unreachable")
+}
+
+// model returns a starting value for level n when the reference layer has
+// barriers on both sides (NaN otherwise): the zero-field level of the
+// reference well between its neighbours taken as semi-infinite barriers,
+// from the phase condition
+//
+//	k + atan(μ_L k/κ_L) + atan(μ_R k/κ_R) = nπ,   κ = π√(μ(v − η)),
+//
+// shifted by the Stark shift of the infinite well of the equivalent width
+// L = nπ/k (at the field f L³ in its own units, scaled by 1/L²) from the
+// infinite solver's own starting models (second order and triangular).
+func (c *calc) model(n int) float64 {
+	r := c.ref()
+	_, _, vl, ml := c.layer(r - 1)
+	_, _, vr, mr := c.layer(r + 1)
+	if !(vl > 0 && vr > 0) || n > MaxLevels {
+		return math.NaN()
+	}
+	g := func(k float64) (float64, float64) {
+		eta := k * k / (math.Pi * math.Pi)
+		kl := math.Pi * math.Sqrt(ml*max(vl-eta, 0))
+		kr := math.Pi * math.Sqrt(mr*max(vr-eta, 0))
+		al, ar := math.Atan2(ml*k, kl), math.Atan2(mr*k, kr)
+		// d/dk atan2(μk, κ) with dκ/dk = −μk/κ: μ(κ² + μk²)/(κ(κ² + μ²k²)).
+		dl := ml * (kl*kl + ml*k*k) / (kl*(kl*kl+ml*ml*k*k) + 1e-300)
+		dr := mr * (kr*kr + mr*k*k) / (kr*(kr*kr+mr*mr*k*k) + 1e-300)
+		return k + al + ar - float64(n)*math.Pi, 1 + dl + dr
+	}
+	kt := math.Pi * math.Sqrt(min(vl, vr))
+	lo, hi := 0.0, min(float64(n)*math.Pi, kt)
+	if v, _ := g(hi); v < 0 {
+		return math.NaN() // beyond the model's bound levels
+	}
+	// Start from the penetration estimate: each wall widens the well by
+	// about μ/κ.
+	k := float64(n) * math.Pi / (1 + ml/(math.Pi*math.Sqrt(ml*vl)) + mr/(math.Pi*math.Sqrt(mr*vr)))
+	if !(k > lo && k < hi) {
+		k = 0.5 * (lo + hi)
+	}
+	for range 12 {
+		v, d := g(k)
+		if v > 0 {
+			hi = k
+		} else {
+			lo = k
+		}
+		nk := k - v/d
+		if !(nk > lo && nk < hi) {
+			nk = 0.5 * (lo + hi)
+		}
+		if math.Abs(nk-k) < 1e-9*k {
+			k = nk
+			break
+		}
+		k = nk
+	}
+	eta0 := k * k / (math.Pi * math.Pi)
+	if c.f == 0 {
+		return eta0
+	}
+	L := float64(n) * math.Pi / k
+	fl := c.f * L * L * L
+	if !(fl < MaxField) {
+		return math.NaN()
+	}
+	nn := float64(n) * float64(n)
+	alpha := math.Cbrt(math.Pi * math.Pi * fl)
+	tri := -fl/2 - airyZero(n)*(alpha*alpha/(math.Pi*math.Pi))
+	inf := guess(fl, alpha, n, tri, math.NaN(), max(nn-fl/2, tri), nn+fl/2)
+	return eta0 + (inf-nn)/(L*L)
 }
