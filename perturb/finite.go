@@ -49,7 +49,7 @@ type wellLevel struct {
 	eta0 float64
 	e    [wellOrder + 1]float64 // E_j, E[0] = 0
 	de   [wellOrder + 1]float64 // rounding allowance δE_j
-	lim  [3]float64             // validity limits: Order 1, Order 2, dipole
+	lims [3]lazyLimit           // validity limits: Order 1, Order 2, dipole
 	gap  float64                // distance to the nearest other level or the barrier top
 	// first is the lowest order of the allowance for the orders beyond J:
 	// the last two orders that do not vanish by symmetry (J−2 and J for
@@ -223,11 +223,7 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 		wellPowers(&pw, f)
 		return lv.tail(&pw) <= lv.lead(2, &pw)
 	}, -300, math.Log10(MaxField))
-	for p := 1; p <= 2; p++ {
-		lv.lim[p-1] = lv.limit(p)
-	}
-	lv.lim[2] = lv.dipoleLimit()
-	lv.geom.nodes = nil // only the series needs them
+	lv.geom.tabs = nil // only the series needs them
 	return lv
 }
 
@@ -260,6 +256,26 @@ func (lv *wellLevel) best(pw *[wellOrder + 1]float64) float64 {
 		}
 	}
 	return eta
+}
+
+// lazyLimit is a validity limit computed on first use.
+type lazyLimit struct {
+	once sync.Once
+	v    float64
+}
+
+// lim returns the validity limit of kind 0 (Order 1), 1 (Order 2) or 2
+// (the dipole), computing it on first use.
+func (lv *wellLevel) lim(kind int) float64 {
+	l := &lv.lims[kind]
+	l.once.Do(func() {
+		if kind == 2 {
+			l.v = lv.dipoleLimit()
+		} else {
+			l.v = lv.limit(kind + 1)
+		}
+	})
+	return l.v
 }
 
 // judged returns the energy by which the confinement of the level and its
@@ -306,7 +322,7 @@ func (lv *wellLevel) limit(p int) float64 {
 // dipoleLimit returns the validity limit of the dipole: the second-order
 // limit, lowered where the neglected terms of dη/df cancel (see noCancel).
 func (lv *wellLevel) dipoleLimit() float64 {
-	return lv.noCancel(lv.lim[1], func(f float64) (sum, abs, allow float64) {
+	return lv.noCancel(lv.lim(1), func(f float64) (sum, abs, allow float64) {
 		var pw [wellOrder + 1]float64
 		wellPowers(&pw, f)
 		var tail float64
@@ -489,7 +505,7 @@ func (s Solver) levelsStack(dst []tiltwell.Level, f float64, k, p int) ([]tiltwe
 		eta, size := lv.energy(p, &pw)
 		l := tiltwell.Level{N: n, Energy: eta, Err: 8 * eps * size, Bound: tiltwell.Estimate}
 		if af > 0 {
-			gam, _, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim[p-1]), math.NaN())
+			gam, _, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim(p-1)), math.NaN())
 			if !conf {
 				why = fmt.Sprintf("level %d is above the downhill barrier at the interface", n)
 				break
@@ -497,7 +513,7 @@ func (s Solver) levelsStack(dst []tiltwell.Level, f float64, k, p int) ([]tiltwe
 			l.GammaErr = gammaSafety * gam
 			l.Err = lv.estimate(p, &pw, size) + gammaShift*gam
 		}
-		lim = math.Min(lim, lv.lim[p-1])
+		lim = math.Min(lim, lv.lim(p-1))
 		dst = append(dst, l)
 	}
 	var errs []error
@@ -558,7 +574,7 @@ func (s Solver) dipoleStack(f float64, n int) (d, derr float64, err error) {
 	if af > 0 {
 		var pw [wellOrder + 1]float64
 		wellPowers(&pw, af)
-		gam, ds, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim[2]), d)
+		gam, ds, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim(2)), d)
 		if !conf {
 			return 0, 0, &tiltwell.ConfinedError{Method: "perturb", F: f, Asked: n, Confined: n - 1,
 				Why: fmt.Sprintf("level %d is above the downhill barrier at the interface", n)}
@@ -584,8 +600,8 @@ func (s Solver) dipoleStack(f float64, n int) (d, derr float64, err error) {
 	if mir {
 		d = -d
 	}
-	if af > lv.lim[2] {
-		return d, derr, &tiltwell.RangeError{Method: "perturb", F: f, Limit: lv.lim[2]}
+	if af > lv.lim(2) {
+		return d, derr, &tiltwell.RangeError{Method: "perturb", F: f, Limit: lv.lim(2)}
 	}
 	return d, derr, nil
 }
@@ -601,5 +617,5 @@ func (s Solver) limitStack(n, p int) (float64, error) {
 	if err != nil {
 		return 0, err
 	}
-	return math.Min(lp.lim[p-1], lm.lim[p-1]), nil
+	return math.Min(lp.lim(p-1), lm.lim(p-1)), nil
 }

@@ -18,7 +18,7 @@ func (s Solver) waveStack(f float64, n int) (tiltwell.Wavefunction, error) {
 	if af > 0 {
 		var pw [wellOrder + 1]float64
 		wellPowers(&pw, af)
-		if _, _, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim[1]), math.NaN()); !conf {
+		if _, _, conf := lv.gamma(af, lv.judged(&pw, af, lv.lim(1)), math.NaN()); !conf {
 			return nil, &tiltwell.ConfinedError{Method: "perturb", F: f, Asked: n, Confined: n - 1,
 				Why: fmt.Sprintf("level %d is above the downhill barrier at the interface", n)}
 		}
@@ -39,8 +39,8 @@ func (s Solver) waveStack(f float64, n int) (tiltwell.Wavefunction, error) {
 	if mir {
 		wf = tiltwell.Mirror(w, n)
 	}
-	if af > lv.lim[1] {
-		return wf, &tiltwell.RangeError{Method: "perturb", F: f, Limit: lv.lim[1]}
+	if af > lv.lim(1) {
+		return wf, &tiltwell.RangeError{Method: "perturb", F: f, Limit: lv.lim(1)}
 	}
 	return wf, nil
 }

@@ -70,15 +70,27 @@ type wellGeom struct {
 	n0       float64 // N₀ = ⟨ψ₀|ψ₀⟩
 	state    squarewell.State
 	vl, vr   float64 // barrier heights
-	// nodes holds sin θ and cos θ at the Gauss–Legendre nodes, built on
-	// first use by the well integrals (nil until then).
-	nodes *nodeTrig
+	// tabs holds the tables of the integrals, built on first use by the
+	// series (nil until then, and dropped after it).
+	tabs *intTables
 }
 
-// nodeTrig holds sin θ and cos θ at the nodes of each rule of glRules.
-type nodeTrig struct {
-	s, c [len(glSizes)][]float64
+// maxProd is the largest degree of a product of two pieces' polynomials
+// with V, 2·(2J) + 1, plus one.
+const maxProd = 4*wellOrder + 2
+
+// intTables holds what the inner products of one level need: the barrier
+// moments tL[m] = ∫₋∞⁰ x^m e^(2κ_L x) dx = (−1)^m m!/(2κ_L)^(m+1) and
+// tR[m] = ∫₀^∞ y^m e^(−2κ_R y) dy = m!/(2κ_R)^(m+1); and, when the well's
+// integrals are done by quadrature (quad), sin θ and cos θ at the nodes.
+type intTables struct {
+	tL, tR [maxProd + 1]float64
+	quad   bool
+	rule   int // index in glRules
+	sn, cs []float64
 }
+
+
 
 // newWellGeom returns the geometry of level n of w.
 func newWellGeom(w squarewell.Well, n int) (wellGeom, error) {
@@ -107,8 +119,13 @@ func newWellGeom(w squarewell.Well, n int) (wellGeom, error) {
 	return g, nil
 }
 
-// pieces is a function on the whole line in the closed form above.
-type pieces struct{ L, P, Q, R poly }
+// pieces is a function on the whole line in the closed form above, with,
+// once it is finished, its well piece at the quadrature nodes (nv, nil
+// when the closed forms are used).
+type pieces struct {
+	L, P, Q, R poly
+	nv         []float64
+}
 
 // wellSeries is the result of the recursion for one level.
 type wellSeries struct {
@@ -167,35 +184,13 @@ func addConst(p *poly, c float64) {
 	(*p)[0] += c
 }
 
-// leftInt returns ∫₋∞⁰ g(x) e^(λx) dx = Σ_m (−1)^m m! g_m / λ^(m+1).
-func leftInt(g poly, lam float64) float64 {
-	s, t := 0.0, 1/lam
-	for m, c := range g {
-		if m > 0 {
-			t *= -float64(m) / lam
-		}
-		s += c * t
-	}
-	return s
-}
 
-// rightInt returns ∫₀^∞ g(y) e^(−λy) dy = Σ_m m! g_m / λ^(m+1).
-func rightInt(g poly, lam float64) float64 {
-	s, t := 0.0, 1/lam
-	for m, c := range g {
-		if m > 0 {
-			t *= float64(m) / lam
-		}
-		s += c * t
-	}
-	return s
-}
 
-// glRules are the Gauss–Legendre rules on [−½, ½] used for the well's
-// integrals when the closed form is ill-conditioned, of glSizes points. They
+// glRules are the Gauss–Legendre rules on [−½, ½] of glSizes points used
+// for the well's integrals when the closed form is ill-conditioned. They
 // must not be modified.
 var (
-	glSizes = [...]int{24, 48, 96}
+	glSizes = [...]int{48, 96}
 	glRules = sync.OnceValue(func() (r [len(glSizes)]struct{ x, w []float64 }) {
 		for i, n := range glSizes {
 			r[i].x, r[i].w = make([]float64, n), make([]float64, n)
@@ -206,130 +201,166 @@ var (
 )
 
 // trigInt returns ∫_(−½)^(½) g(u) cos 2θ du and ∫ g(u) sin 2θ du,
-// 2θ = Ku + 2θ₀, K = 2k. With K above twice the degree the terms of the
-// integration by parts,
+// 2θ = Ku + 2θ₀, K = 2k, by integration by parts,
 //
 //	∫ g cos t du = [Σ_m g^(m) sin(t + mπ/2) / K^(m+1)],
-//	∫ g sin t du = −[Σ_m g^(m) cos(t + mπ/2) / K^(m+1)],
+//	∫ g sin t du = −[Σ_m g^(m) cos(t + mπ/2) / K^(m+1)].
 //
-// shrink geometrically and the sum is well conditioned. Below, a
-// Gauss–Legendre rule of N points is used, N ≥ 12 + (degree + K)/2: the
-// integrand is a polynomial of degree d times a trigonometric function of
-// frequency K < 2d + 4 ≤ 86, and the rule's error, of the order of
-// (K/4)^(2N)/(2N)! beyond the polynomial part (DLMF 3.5.19 with the
-// derivatives of e^(iKu)), is below rounding.
+// With K above twice the degree the terms shrink geometrically and the sum
+// is well conditioned; inner uses it only there.
 func (g *wellGeom) trigInt(p poly) (ic, is float64) {
-	if len(p) == 0 {
-		return 0, 0
-	}
 	K := 2 * g.k
-	if K > 2*float64(len(p)+1) {
-		sinT := [2]float64{g.s2l, g.s2r}
-		cosT := [2]float64{g.c2l, g.c2r}
-		var res [2][2]float64 // [end][cos, sin]
-		for e, u := range [2]float64{-0.5, 0.5} {
-			d := p
-			kp := K
-			for m := 0; len(d) > 0; m++ {
-				v := d.eval(u) / kp
-				var sm, cm float64 // sin(t + mπ/2), cos(t + mπ/2)
-				switch m % 4 {
-				case 0:
-					sm, cm = sinT[e], cosT[e]
-				case 1:
-					sm, cm = cosT[e], -sinT[e]
-				case 2:
-					sm, cm = -sinT[e], -cosT[e]
-				case 3:
-					sm, cm = -cosT[e], sinT[e]
-				}
-				res[e][0] += v * sm
-				res[e][1] -= v * cm
-				d = d.deriv()
-				kp *= K
+	sinT := [2]float64{g.s2l, g.s2r}
+	cosT := [2]float64{g.c2l, g.c2r}
+	var res [2][2]float64 // [end][cos, sin]
+	for e, u := range [2]float64{-0.5, 0.5} {
+		d := p
+		kp := K
+		for m := 0; len(d) > 0; m++ {
+			v := d.eval(u) / kp
+			var sm, cm float64 // sin(t + mπ/2), cos(t + mπ/2)
+			switch m % 4 {
+			case 0:
+				sm, cm = sinT[e], cosT[e]
+			case 1:
+				sm, cm = cosT[e], -sinT[e]
+			case 2:
+				sm, cm = -sinT[e], -cosT[e]
+			case 3:
+				sm, cm = -cosT[e], sinT[e]
 			}
-		}
-		return res[1][0] - res[0][0], res[1][1] - res[0][1]
-	}
-	need := 12 + (float64(len(p))+K)/2
-	rules := glRules()
-	r := &rules[len(rules)-1]
-	for i, n := range glSizes {
-		if float64(n) >= need {
-			r = &rules[i]
-			break
+			res[e][0] += v * sm
+			res[e][1] -= v * cm
+			d = d.deriv()
+			kp *= K
 		}
 	}
-	for i, u := range r.x {
-		s, c := math.Sincos(2 * (g.k*u + g.th0))
-		v := r.w[i] * p.eval(u)
-		ic += v * c
-		is += v * s
-	}
-	return ic, is
+	return res[1][0] - res[0][0], res[1][1] - res[0][1]
 }
 
-// inner returns ⟨a|b⟩, or ⟨a|V|b⟩ with V = ξ − ½ if withV, over the line.
-// The barrier integrals are closed forms. In the well, with K = 2k above
-// twice the degree of the products the closed form of trigInt is used;
-// below, the Gauss–Legendre rule of at least 12 + (degree + K)/2 points
-// (exact to rounding, see trigInt) applied to ψ_a ψ_b directly.
-func (g *wellGeom) inner(a, b *pieces, withV bool) float64 {
-	la, pa, qa, ra := a.L, a.P, a.Q, a.R
-	if withV {
-		la, pa, qa, ra = shiftMul(la, -0.5), pa.mulU(), qa.mulU(), shiftMul(ra, 0.5)
+// tables returns the integral tables of g, building them on first use.
+func (g *wellGeom) tables() *intTables {
+	if g.tabs != nil {
+		return g.tabs
 	}
-	s := leftInt(mul(la, b.L), 2*g.kl) + rightInt(mul(ra, b.R), 2*g.kr)
-	deg := max(len(pa)+len(b.P), len(qa)+len(b.Q), len(pa)+len(b.Q), len(qa)+len(b.P)) - 2
-	K := 2 * g.k
-	if K > 2*float64(deg+2) {
+	t := new(intTables)
+	ll, lr := 1/(2*g.kl), 1/(2*g.kr)
+	t.tL[0], t.tR[0] = ll, lr
+	for m := 1; m <= maxProd; m++ {
+		t.tL[m] = -t.tL[m-1] * float64(m) * ll
+		t.tR[m] = t.tR[m-1] * float64(m) * lr
+	}
+	// The rule has at least 12 + (maxProd + 2k)/2 points: the integrand
+	// is a polynomial of degree ≤ maxProd times a trigonometric function
+	// of frequency 2k, and the rule's error beyond the polynomial part,
+	// of the order of (k/2)^(2N)/(2N)! (DLMF 3.5.19 with the derivatives
+	// of e^(2iku)), is below rounding.
+	if K := 2 * g.k; K <= 2*float64(maxProd+1) {
+		t.quad = true
+		for i, n := range glSizes {
+			t.rule = i
+			if float64(n) >= 12+(maxProd+K)/2 {
+				break
+			}
+		}
+		rules := glRules()
+		r := &rules[t.rule]
+		t.sn, t.cs = make([]float64, len(r.x)), make([]float64, len(r.x))
+		for i, u := range r.x {
+			t.sn[i], t.cs[i] = math.Sincos(g.k*u + g.th0)
+		}
+	}
+	g.tabs = t
+	return t
+}
+
+// nodeValues returns the well piece of p at the quadrature nodes: its
+// cache if set, else computed into buf.
+func (g *wellGeom) nodeValues(p *pieces, buf []float64) []float64 {
+	if p.nv != nil {
+		return p.nv
+	}
+	t := g.tables()
+	x := glRules()[t.rule].x
+	for i, u := range x {
+		buf[i] = p.P.eval(u)*t.cs[i] + p.Q.eval(u)*t.sn[i]
+	}
+	return buf
+}
+
+// fix caches the node values of a finished piece.
+func (g *wellGeom) fix(p *pieces) {
+	if t := g.tables(); t.quad {
+		p.nv = g.nodeValues(p, make([]float64, glSizes[t.rule]))
+	}
+}
+
+// inner returns ⟨a|b⟩, or ⟨a|V|b⟩ with V = ξ − ½ if withV, over the line:
+// the barrier integrals from the moment tables, and the well's either by
+// the closed form of trigInt (for 2k above twice the largest degree of the
+// products, where it is well conditioned) or by the Gauss–Legendre rule
+// of the tables applied to ψ_a ψ_b (exact to rounding there).
+func (g *wellGeom) inner(a, b *pieces, withV bool) float64 {
+	t := g.tables()
+	var s float64
+	for i, x := range a.L {
+		for j, y := range b.L {
+			if c := x * y; c != 0 {
+				if withV {
+					s += c * (t.tL[i+j+1] - 0.5*t.tL[i+j])
+				} else {
+					s += c * t.tL[i+j]
+				}
+			}
+		}
+	}
+	for i, x := range a.R {
+		for j, y := range b.R {
+			if c := x * y; c != 0 {
+				if withV {
+					s += c * (t.tR[i+j+1] + 0.5*t.tR[i+j])
+				} else {
+					s += c * t.tR[i+j]
+				}
+			}
+		}
+	}
+	if !t.quad {
+		pa, qa := a.P, a.Q
+		if withV {
+			pa, qa = pa.mulU(), qa.mulU()
+		}
 		pp, qq := mul(pa, b.P), mul(qa, b.Q)
 		pq := axpy(1, mul(pa, b.Q), mul(qa, b.P))
 		ic, _ := g.trigInt(axpy(-1, qq, pp))
 		_, is := g.trigInt(pq)
 		return s + 0.5*intOne(axpy(1, pp, qq)) + 0.5*ic + 0.5*is
 	}
-	need := 12 + (float64(deg+1)+K)/2
+	var bufA, bufB [96]float64
+	va, vb := g.nodeValues(a, bufA[:]), g.nodeValues(b, bufB[:])
 	rules := glRules()
-	ri := len(rules) - 1
-	for i, n := range glSizes {
-		if float64(n) >= need {
-			ri = i
-			break
+	r := &rules[t.rule]
+	for i, w := range r.w {
+		if withV {
+			w *= r.x[i]
 		}
-	}
-	sn, cs := g.nodeValues(ri)
-	r := &rules[ri]
-	for i, u := range r.x {
-		va := pa.eval(u)*cs[i] + qa.eval(u)*sn[i]
-		vb := b.P.eval(u)*cs[i] + b.Q.eval(u)*sn[i]
-		s += r.w[i] * va * vb
+		s += w * va[i] * vb[i]
 	}
 	return s
 }
 
-// nodeValues returns sin θ and cos θ at the nodes of rule ri.
-func (g *wellGeom) nodeValues(ri int) (sn, cs []float64) {
-	if g.nodes == nil {
-		g.nodes = new(nodeTrig)
-	}
-	nt := g.nodes
-	if nt.s[ri] == nil {
-		rules := glRules()
-		r := &rules[ri]
-		nt.s[ri], nt.c[ri] = make([]float64, len(r.x)), make([]float64, len(r.x))
-		for i, u := range r.x {
-			nt.s[ri][i], nt.c[ri][i] = math.Sincos(g.k*u + g.th0)
-		}
-	}
-	return nt.s[ri], nt.c[ri]
-}
-
 // absProjection returns a bound on ∫|ψ₀ V p| over the line.
 func (g *wellGeom) absProjection(p *pieces) float64 {
-	return 0.5*(polyMag(p.P)+polyMag(p.Q)) +
-		math.Abs(g.sl)*absInt(shiftMul(absPoly(p.L), 0.5), 2*g.kl) +
-		math.Abs(g.s1)*absInt(shiftMul(absPoly(p.R), 0.5), 2*g.kr)
+	t := g.tables()
+	s := 0.5 * (polyMag(p.P) + polyMag(p.Q))
+	var l, r float64
+	for i, c := range p.L {
+		l += math.Abs(c) * (math.Abs(t.tL[i+1]) + 0.5*math.Abs(t.tL[i]))
+	}
+	for i, c := range p.R {
+		r += math.Abs(c) * (t.tR[i+1] + 0.5*t.tR[i])
+	}
+	return s + math.Abs(g.sl)*l + math.Abs(g.s1)*r
 }
 
 // polyMag returns Σ |p_i| 2^(−i), a bound on |p(u)| for |u| ≤ ½.
@@ -342,26 +373,7 @@ func polyMag(p poly) float64 {
 	return s
 }
 
-// absPoly returns the polynomial of the magnitudes of p's coefficients.
-func absPoly(p poly) poly {
-	d := make(poly, len(p))
-	for i, c := range p {
-		d[i] = math.Abs(c)
-	}
-	return d
-}
 
-// absInt returns Σ_i |p_i| i!/λ^(i+1) = ∫₀^∞ Σ|p_i| t^i e^(−λt) dt.
-func absInt(p poly, lam float64) float64 {
-	s, t := 0.0, 1/lam
-	for m, c := range p {
-		if m > 0 {
-			t *= float64(m) / lam
-		}
-		s += math.Abs(c) * t
-	}
-	return s
-}
 
 // psi0 returns ψ₀ with B = 1.
 func (g *wellGeom) psi0() pieces {
@@ -370,9 +382,18 @@ func (g *wellGeom) psi0() pieces {
 
 // wellAt returns ψ and dψ/dξ of the well piece at u.
 func (g *wellGeom) wellAt(p *pieces, u, s, c float64) (v, d float64) {
-	P, Q := p.P.eval(u), p.Q.eval(u)
-	dP, dQ := p.P.deriv().eval(u), p.Q.deriv().eval(u)
+	P, dP := evalD(p.P, u)
+	Q, dQ := evalD(p.Q, u)
 	return P*c + Q*s, (dP+g.k*Q)*c + (dQ-g.k*P)*s
+}
+
+// evalD returns p(u) and p′(u) (Horner).
+func evalD(p poly, u float64) (v, d float64) {
+	for i := len(p) - 1; i >= 0; i-- {
+		d = d*u + v
+		v = v*u + p[i]
+	}
+	return v, d
 }
 
 // solveWell returns the particular polynomials P, Q with P(0) = Q(0) = 0
@@ -456,6 +477,7 @@ func finitePoly(p poly) bool {
 func (g *wellGeom) series() wellSeries {
 	var ws wellSeries
 	p0 := g.psi0()
+	g.fix(&p0)
 	ws.psi = []pieces{p0}
 	pi2 := math.Pi * math.Pi
 	for j := 1; j <= wellOrder; j++ {
@@ -506,10 +528,14 @@ func (g *wellGeom) series() wellSeries {
 			ws.resid = math.Max(ws.resid, math.Abs(dR-dw1)/scale)
 		}
 		// ⟨ψ₀|ψ_j⟩ = 0.
+		g.fix(&ps)
 		s := g.inner(&p0, &ps, false) / g.n0
 		addConst(&ps.L, -s*g.sl)
 		addConst(&ps.Q, -s)
 		addConst(&ps.R, -s*g.s1)
+		for i := range ps.nv {
+			ps.nv[i] -= s * p0.nv[i]
+		}
 		if !(finitePoly(ps.L) && finitePoly(ps.P) && finitePoly(ps.Q) && finitePoly(ps.R)) {
 			ws.order = j
 			ws.psi = append(ws.psi, pieces{})
