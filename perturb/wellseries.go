@@ -90,8 +90,6 @@ type intTables struct {
 	sn, cs []float64
 }
 
-
-
 // newWellGeom returns the geometry of level n of w.
 func newWellGeom(w squarewell.Well, n int) (wellGeom, error) {
 	st, err := w.State(n)
@@ -183,8 +181,6 @@ func addConst(p *poly, c float64) {
 	}
 	(*p)[0] += c
 }
-
-
 
 // glRules are the Gauss–Legendre rules on [−½, ½] of glSizes points used
 // for the well's integrals when the closed form is ill-conditioned. They
@@ -372,8 +368,6 @@ func polyMag(p poly) float64 {
 	}
 	return s
 }
-
-
 
 // psi0 returns ψ₀ with B = 1.
 func (g *wellGeom) psi0() pieces {
