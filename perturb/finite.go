@@ -191,6 +191,7 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 	}
 	if len(ws.psi) > 1 {
 		lv.psi1 = ws.psi[1]
+		lv.psi1.nv = nil
 	}
 	rn := math.Sqrt(g.n0)
 	ma := min(ws.order, ampOrder)

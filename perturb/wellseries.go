@@ -540,16 +540,3 @@ func (g *wellGeom) series() wellSeries {
 	}
 	return ws
 }
-
-// at returns the value of p at ξ (for tests and wavefunctions).
-func (g *wellGeom) at(p *pieces, xi float64) float64 {
-	switch {
-	case xi < 0:
-		return p.L.eval(xi) * math.Exp(g.kl*xi)
-	case xi > 1:
-		return p.R.eval(xi-1) * math.Exp(-g.kr*(xi-1))
-	}
-	u := xi - 0.5
-	s, c := math.Sincos(g.k*u + g.th0)
-	return p.P.eval(u)*c + p.Q.eval(u)*s
-}
