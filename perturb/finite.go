@@ -11,16 +11,19 @@ import (
 	"github.com/tiltwell/tiltwell/internal/squarewell"
 )
 
-// Validity of the finite-well series (see [Solver.Limit]). The order-P
-// result is trusted up to the field where the first of these happens:
+// Validity of the finite-well series (see [Solver.Limit] and the package
+// documentation). The order-P result is trusted up to the field where the
+// first of these happens:
 //
-//   - the largest of the last four computed terms, (|E_j| + δE_j) f^j for
-//     j = J−3…J, reaches wellTailFraction of the first neglected terms
+//   - the allowance for the orders beyond J (tail) reaches
+//     wellTailFraction of the first neglected terms
 //     |E_(P+1)| f^(P+1) + |E_(P+2)| f^(P+2);
 //   - those neglected terms reach gapFraction of the distance from η₀ to
 //     the nearest other bound level or to the lower barrier top;
 //   - the quasiclassical escape width reaches wellGammaFraction of that
-//     distance, or the level reaches the top of the downhill barrier.
+//     distance, or the level reaches the top of the downhill barrier;
+//   - the neglected terms cancel while the allowance is not negligible
+//     (noCancel).
 const (
 	wellTailFraction  = 0.05
 	wellGammaFraction = 0.01
@@ -29,7 +32,8 @@ const (
 // gammaSafety is the factor between the quasiclassical escape width and
 // the GammaErr reported for it, and gammaShift the multiple of it added to
 // the energy's error estimate for the shift of the level beyond all
-// orders of the series; see [Solver] for how they were measured.
+// orders of the series; the package documentation gives the measurements
+// against the exact solver behind them.
 const (
 	gammaSafety = 2
 	gammaShift  = 1.5
@@ -55,8 +59,9 @@ type wellLevel struct {
 	// the last two orders that do not vanish by symmetry (J−2 and J for
 	// a symmetric well, J−1 and J otherwise).
 	first int
-	// fBest is the field up to which the tail criterion of the
-	// second-order limit holds, below which best sums the series to J.
+	// fBest is the field up to which the allowance for the orders beyond
+	// J stays below the third- and fourth-order terms; best sums the
+	// series to J below it.
 	fBest float64
 	rml   float64 // √μ_L
 	// The downhill (left) barrier for f > 0; the series of the state's
@@ -197,14 +202,14 @@ func buildWellLevel(s *wellSide, n int) *wellLevel {
 	ma := min(ws.order, ampOrder)
 	for i := 0; i <= ma; i++ {
 		lv.amp[i] = finiteOr(at0(ws.psi[i].L)/rn, 0)
-		lv.nrm[2*i] += finiteOr(g.inner(&ws.psi[i], &ws.psi[i], false)/g.n0, 0)
+		d := finiteOr(g.inner(&ws.psi[i], &ws.psi[i], false)/g.n0, 0)
+		lv.nrm[2*i] += d
+		if i == 1 {
+			lv.s11 = d
+		}
 		for j := i + 1; j <= ma; j++ {
 			lv.nrm[i+j] += 2 * finiteOr(g.inner(&ws.psi[i], &ws.psi[j], false)/g.n0, 0)
 		}
-	}
-	lv.s11 = lv.nrm[2]
-	if len(ws.psi) > 1 {
-		lv.s11 = finiteOr(g.inner(&ws.psi[1], &ws.psi[1], false)/g.n0, 0)
 	}
 	// Distance to the nearest other level or to the continuum.
 	top := math.Min(s.well.VL, s.well.VR)
@@ -246,9 +251,9 @@ func (lv *wellLevel) tail(pw *[wellOrder + 1]float64) float64 {
 }
 
 // best returns the best energy the series gives at the field with powers
-// pw: the sum to order J where its last terms are small (the tail
-// criterion of the second-order limit holds), else the second-order
-// energy. The escape width and the confinement test use it.
+// pw: the sum to order J up to fBest, where the allowance for the orders
+// beyond J is below the third- and fourth-order terms, else the
+// second-order energy. The escape width and the confinement test use it.
 func (lv *wellLevel) best(pw *[wellOrder + 1]float64) float64 {
 	eta, _ := lv.energy(2, pw)
 	if pw[1] <= lv.fBest {
