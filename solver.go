@@ -163,18 +163,22 @@ func Mirror(w Wavefunction, n int) Wavefunction {
 		s = -1
 	}
 	if sp, ok := w.(Spread); ok {
-		return mirroredSpread{mirrored{w: w, sign: s}, sp}
+		return mirroredSpread{mirrored{w: w, sign: s, spread: true}, sp}
 	}
 	return mirrored{w: w, sign: s}
 }
 
 type mirrored struct {
-	w    Wavefunction
-	sign float64
+	w      Wavefunction
+	sign   float64
+	spread bool // w implements Spread: no clipping to [0, 1]
 }
 
+// At returns sign·w(1 − ξ): 0 for NaN ξ, and, for infinite walls (w not a
+// [Spread]), 0 outside [0, 1], where 1 − ξ would round onto a wall
+// (ξ = −1e-300 gives 1 − ξ = 1).
 func (m mirrored) At(xi float64) float64 {
-	if m.w == nil || math.IsNaN(xi) {
+	if m.w == nil || math.IsNaN(xi) || (!m.spread && !(xi >= 0 && xi <= 1)) {
 		return 0
 	}
 	return m.sign * m.w.At(1-xi)

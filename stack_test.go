@@ -216,6 +216,22 @@ func TestMirrorNil(t *testing.T) {
 	}
 }
 
+// TestMirrorOutside: for infinite walls the mirror is 0 outside [0, 1],
+// even where 1 − ξ rounds onto the wall and w(1) is a rounding residue
+// (common practice, no source: the Wavefunction contract).
+func TestMirrorOutside(t *testing.T) {
+	t.Parallel()
+	m := tiltwell.Mirror(tiltwell.WaveFunc(func(xi float64) float64 { return 1 }), 1)
+	for _, xi := range []float64{-1e-300, -0.25, 1 + 1e-15, 2} {
+		if v := m.At(xi); v != 0 {
+			t.Errorf("Mirror(w, 1).At(%g) = %g, want 0", xi, v)
+		}
+	}
+	if v := m.At(0.5); v != 1 {
+		t.Errorf("Mirror(w, 1).At(0.5) = %g, want 1", v)
+	}
+}
+
 // spreadWave is a test wavefunction that reaches beyond [0, 1].
 type spreadWave struct{}
 
