@@ -16,10 +16,10 @@ import (
 func TestNarrowAgainstNewton(t *testing.T) {
 	t.Parallel()
 	const prec = 128
-	for _, c := range []struct {
+	for _, c := range sample([]struct {
 		v, mu, f float64
 		n        int
-	}{{4.3, 1.37, 2, 1}, {10, 1, 3, 2}, {50, 2, 5, 3}, {50, 1.37, 3, 1}} {
+	}{{4.3, 1.37, 2, 1}, {10, 1, 3, 2}, {50, 2, 5, 3}, {50, 1.37, 3, 1}}) {
 		t.Run(fmt.Sprintf("v=%g/f=%g/n=%d", c.v, c.f, c.n), func(t *testing.T) {
 			t.Parallel()
 			w := single(c.v, c.mu, c.v, c.mu)
@@ -50,7 +50,7 @@ func TestNarrowAgainstNewton(t *testing.T) {
 func TestPrecisionConsistency(t *testing.T) {
 	t.Parallel()
 	double := []Layer{{0, 10, 1.37}, {1, 0, 1}, {0.2, 10, 1.37}, {1, 0, 1}, {0, 10, 1.37}}
-	for _, c := range []struct {
+	for _, c := range sample([]struct {
 		layers []Layer
 		f      float64
 		n      int
@@ -60,7 +60,7 @@ func TestPrecisionConsistency(t *testing.T) {
 		{single(300, 1.37, 300, 1.37), 1e-6, 2, RouteNarrow},
 		{single(4.3, 1.37, 4.3, 1.37), 2, 1, RouteNewton},
 		{double, -1, 3, RouteNewton},
-	} {
+	}) {
 		t.Run(fmt.Sprintf("%v/f=%g", c.route, c.f), func(t *testing.T) {
 			t.Parallel()
 			a, err := Level(c.layers, 1, c.f, c.n, 128)

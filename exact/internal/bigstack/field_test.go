@@ -18,7 +18,7 @@ import (
 func TestInfiniteBarrierLimit(t *testing.T) {
 	t.Parallel()
 	const prec = 128
-	for _, f := range []float64{0, 1, -5} {
+	for _, f := range sample([]float64{0, 1, -5}) {
 		for _, n := range []int{1, 2} {
 			t.Run(fmt.Sprintf("f=%g/n=%d", f, n), func(t *testing.T) {
 				t.Parallel()
@@ -70,10 +70,10 @@ func TestTranslationAndMirror(t *testing.T) {
 	const prec = 128
 	w := []Layer{{0, 10, 1.37}, {1, 0, 1}, {0.2, 6, 1.37}, {1, 0, 1}, {0, 20, 2}}
 	wm, refm := mirror(w, 3)
-	for _, c := range []struct {
+	for _, c := range sample([]struct {
 		f float64
 		n int
-	}{{0.5, 1}, {2, 2}, {1e-3, 1}, {0, 3}, {-2, 2}} {
+	}{{0.5, 1}, {2, 2}, {1e-3, 1}, {0, 3}, {-2, 2}}) {
 		t.Run(fmt.Sprintf("f=%g/n=%d", c.f, c.n), func(t *testing.T) {
 			t.Parallel()
 			a, err := Level(w, 1, c.f, c.n, prec)
@@ -197,7 +197,7 @@ func TestWidthAgainstFlux(t *testing.T) {
 	const prec = 128
 	double := []Layer{{0, 10, 1.37}, {1, 0, 1}, {0.2, 10, 1.37}, {1, 0, 1}, {0, 10, 1.37}}
 	step := []Layer{{0, 10, 1.37}, {1, 0, 1}, {0.5, 3, 1.1}, {0, 10, 1.37}}
-	for _, c := range []struct {
+	for _, c := range sample([]struct {
 		name   string
 		layers []Layer
 		f      float64
@@ -211,7 +211,7 @@ func TestWidthAgainstFlux(t *testing.T) {
 		{"double-f1", double, 1, 3},
 		{"double-f-0.5", double, -0.5, 2},
 		{"step-f3", step, 3, 2},
-	} {
+	}) {
 		t.Run(c.name, func(t *testing.T) {
 			t.Parallel()
 			r, err := level(c.layers, 1, c.f, c.n, prec, routeNewtonOnly)
