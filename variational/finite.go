@@ -96,7 +96,9 @@ func (s Solver) finiteBrackets(fw *finiteWork, dst []Bracket, f float64, k int, 
 	pl, ps := p, p
 	pl.pw, ps.pw = pwL, pwS
 	r := rules()[pickRule(pl.dim(), beta)]
-	if !fw.large.build(r, pl) || !fw.small.build(r, ps) {
+	fw.large.tabulate(r, pl)
+	fw.large.matrices()
+	if !fw.small.nested(fw.large, ps.pw) || !fw.large.solve() {
 		return dst, fmt.Errorf("variational: stack %v at f = %g: trial space not positive definite: %w", s.Stack, f, tiltwell.ErrNoConvergence)
 	}
 	prevL, prevS, prevE := math.Inf(-1), math.Inf(-1), math.Inf(-1)

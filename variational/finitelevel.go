@@ -234,17 +234,36 @@ func (sp *fspace) level(n int, lo float64) flevel {
 			a, na = m, nm
 		}
 	}
-	// Newton on g, safeguarded by the bracket, which the count keeps (the
-	// sign of g at the ends is not safe: an end may be the level below,
-	// a root of g itself).
+	// Newton on g, safeguarded by the bracket. The sign of g at the ends
+	// is not safe (an end may be the level below, a root of g itself), so
+	// the side of the root is taken from the count at the first point, and
+	// from the sign of g relative to it afterwards (g changes sign once in
+	// [a, b]). The iteration stops when the step reaches rounding: below
+	// 4ε(|η| + 1), or below 64ε(|η| + 1) and no longer halving.
 	t := a + (b-a)/2
 	if ref < 0 {
 		ref = sp.tAt(t, p.edgesAt(t)).j
 	}
+	e := p.edgesAt(t)
+	aboveSign := sp.tAt(t, e).count() >= n
+	g0, _, _ := sp.tAtPole(t, e, ref).g()
+	if !aboveSign {
+		g0 = -g0
+	}
+	// g0 now has the sign g takes above the root.
+	prevStep := math.Inf(1)
 	for range 100 {
-		e := p.edgesAt(t)
-		g, g1, _ := sp.tAtPole(t, e, ref).g()
-		if sp.tAt(t, e).count() >= n {
+		g, g1, _ := sp.tAtPole(t, p.edgesAt(t), ref).g()
+		step := math.Abs(g / g1)
+		tol := eps * (math.Abs(t) + 1)
+		if step <= 4*tol || (step <= 64*tol && step > prevStep/2) {
+			if next := t - g/g1; next >= a && next <= b {
+				t = next
+			}
+			break
+		}
+		prevStep = step
+		if (g > 0) == (g0 > 0) {
 			b = t
 		} else {
 			a = t
@@ -253,9 +272,8 @@ func (sp *fspace) level(n int, lo float64) flevel {
 		if !(next > a && next < b) {
 			next = a + (b-a)/2
 		}
-		done := math.Abs(next-t) <= 2*eps*(math.Abs(t)+1)
 		t = next
-		if done || b-a <= 2*eps*(math.Abs(t)+1) {
+		if b-a <= 2*tol {
 			break
 		}
 	}

@@ -92,6 +92,7 @@ type fspace struct {
 	vecs   []float64 // dim×dim; column j is x_j (S-orthonormal)
 	w0, w1 []float64 // w_0j = ψ_j(0), w_1j = ψ_j(1)
 	work   []float64
+	sc     []float64 // dim×n scratch for the matrix products
 }
 
 func newFspace() *fspace {
@@ -108,6 +109,7 @@ func newFspace() *fspace {
 		vecs:  make([]float64, d*d),
 		w0:    make([]float64, d),
 		w1:    make([]float64, d),
+		sc:    make([]float64, d*nmax),
 	}
 	var wq [1]float64
 	gonum.Implementation{}.Dsyev(lapack.EVCompute, blas.Upper, d, sp.vecs, d, sp.vals, wq[:], -1)
@@ -119,6 +121,34 @@ func newFspace() *fspace {
 // computes their Ritz pairs. It reports false if the Gram matrix is not
 // numerically positive definite or the eigensolver fails.
 func (sp *fspace) build(r *rule, p fparams) bool {
+	sp.tabulate(r, p)
+	sp.matrices()
+	return sp.solve()
+}
+
+// nested makes sp the space of large with only pw of its bubbles: its
+// matrices are the leading blocks of large's (which must be tabulated and
+// filled, not yet solved), and it computes their Ritz pairs. It is not
+// tabulated: it serves level, not wavefunctions.
+func (sp *fspace) nested(large *fspace, pw int) bool {
+	sp.p, sp.r = large.p, large.r
+	sp.p.pw = pw
+	dim, ld := sp.p.dim(), large.p.dim()
+	for a := range dim {
+		copy(sp.h[a*dim:(a+1)*dim], large.h[a*ld:a*ld+dim])
+		copy(sp.s[a*dim:(a+1)*dim], large.s[a*ld:a*ld+dim])
+	}
+	return sp.solve()
+}
+
+// tabulate tabulates the basis of p at the nodes of r: the interface
+// functions and the bubbles, the latter by the three-term (Stieltjes)
+// recurrence of the polynomials orthogonal under the weight of the first
+// bubble, ξ²(1−ξ)²e^(−2β(ξ−ξr)), in the rule's inner product (each new
+// bubble orthogonalized against the two before it, twice). Orthogonality
+// to the earlier ones is lost only slowly, and the Gram matrix is
+// computed in full anyway.
+func (sp *fspace) tabulate(r *rule, p fparams) {
 	sp.p, sp.r = p, r
 	n := r.n
 	xr := 0.0
@@ -162,9 +192,8 @@ func (sp *fspace) build(r *rule, p fparams) bool {
 			v[l] = (2*x - 1) * pv[l]
 			d[l] = 2*pv[l] + (2*x-1)*pd[l]
 		}
-		// Gram–Schmidt against the earlier bubbles, twice.
 		for range 2 {
-			for i := range j {
+			for i := max(0, j-2); i < j; i++ {
 				qv, qd := sp.wv[(2+i)*n:(3+i)*n], sp.wd[(2+i)*n:(3+i)*n]
 				pp := 0.0
 				for l, wl := range r.w {
@@ -179,8 +208,6 @@ func (sp *fspace) build(r *rule, p fparams) bool {
 		}
 		rec[j*p.pw+j] = sp.normalize(a)
 	}
-	sp.matrices()
-	return sp.solve()
 }
 
 // normalize scales basis function a to unit discrete norm and returns the
@@ -201,25 +228,43 @@ func (sp *fspace) normalize(a int) float64 {
 }
 
 // matrices fills H₀_ab = ∫₀¹ (ψ_a′ψ_b′/π² + f(ξ−½)ψ_aψ_b) dξ and
-// S_ab = ∫₀¹ ψ_aψ_b dξ by the rule.
+// S_ab = ∫₀¹ ψ_aψ_b dξ by the rule: with the tabulated functions as the
+// rows of dim×n matrices D (derivatives) and V (values) and the weights
+// W, H₀ = D W Dᵀ/π² + (V W F) Vᵀ and S = V W Vᵀ, F = diag f(ξ−½).
 func (sp *fspace) matrices() {
 	p, r := sp.p, sp.r
-	dim := p.dim()
+	dim, n := p.dim(), r.n
+	bi := blas64.Implementation()
 	h, s := sp.h[:dim*dim], sp.s[:dim*dim]
-	ip2 := 1 / (math.Pi * math.Pi)
-	n := r.n
+	sc := sp.sc[:dim*n]
 	for a := range dim {
-		va, da := sp.wv[a*n:(a+1)*n], sp.wd[a*n:(a+1)*n]
-		for b := a; b < dim; b++ {
-			vb, db := sp.wv[b*n:(b+1)*n], sp.wd[b*n:(b+1)*n]
-			var hh, ss float64
-			for l, wl := range r.w {
-				vv := wl * va[l] * vb[l]
-				ss += vv
-				hh += wl*da[l]*db[l]*ip2 + p.f*(r.x[l]-0.5)*vv
-			}
-			h[a*dim+b], h[b*dim+a] = hh, hh
-			s[a*dim+b], s[b*dim+a] = ss, ss
+		da, row := sp.wd[a*n:(a+1)*n], sc[a*n:(a+1)*n]
+		for l := range n {
+			row[l] = da[l] * r.sw[l]
+		}
+	}
+	bi.Dsyrk(blas.Upper, blas.NoTrans, dim, n, 1/(math.Pi*math.Pi), sc, n, 0, h, dim)
+	for a := range dim {
+		va, row := sp.wv[a*n:(a+1)*n], sc[a*n:(a+1)*n]
+		for l := range n {
+			row[l] = va[l] * r.sw[l]
+		}
+	}
+	bi.Dsyrk(blas.Upper, blas.NoTrans, dim, n, 1, sc, n, 0, s, dim)
+	for a := range dim {
+		va, row := sp.wv[a*n:(a+1)*n], sc[a*n:(a+1)*n]
+		for l, x := range r.x {
+			row[l] = va[l] * r.w[l] * p.f * (x - 0.5)
+		}
+	}
+	// H₀ += (V W F) Vᵀ, upper triangle: row a of the product with rows b ≥ a.
+	for a := range dim {
+		bi.Dgemv(blas.NoTrans, dim-a, n, 1, sp.wv[a*n:], n, sc[a*n:(a+1)*n], 1, 1, h[a*dim+a:], 1)
+	}
+	for a := range dim {
+		for b := a + 1; b < dim; b++ {
+			h[b*dim+a] = h[a*dim+b]
+			s[b*dim+a] = s[a*dim+b]
 		}
 	}
 }

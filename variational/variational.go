@@ -213,8 +213,10 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 		fw := finitePool.Get().(*finiteWork)
 		defer finitePool.Put(fw)
 		br, err := s.finiteBrackets(fw, fw.brackets[:0], f, k, nil)
-		if _, ok := tiltwell.Confined(err); err != nil && !ok {
-			return dst, err
+		if err != nil {
+			if _, ok := tiltwell.Confined(err); !ok {
+				return dst, err
+			}
 		}
 		for _, b := range br {
 			dst = append(dst, b.Level())
