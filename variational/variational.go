@@ -68,6 +68,12 @@ const MaxLevels = 12
 // MaxField is the largest |f| the Poly and Tilt families accept.
 const MaxField = 1e4
 
+// FiniteMaxField is the largest |f| the Poly and Tilt families accept on a
+// finite Stack: beyond it the levels of the 40-function well space are not
+// yet converged for the upper levels, and the convergence estimate was
+// seen to fall short (at f = 1e4).
+const FiniteMaxField = 1e3
+
 // SineMaxField is the largest |f| the Sine family accepts: beyond it its
 // tilt search runs to the largest tilt the quadrature rules resolve, and
 // its brackets are wider than 1e-3 anyway.
@@ -178,6 +184,9 @@ func (s Solver) check(f float64, k int) error {
 	maxField := MaxField
 	if s.Family == Sine {
 		maxField = SineMaxField
+	}
+	if !s.Stack.Infinite() {
+		maxField = FiniteMaxField
 	}
 	if err := s.checkStack(); err != nil {
 		return err
