@@ -13,6 +13,7 @@ import (
 // finiteWork is the scratch of one call on a finite well.
 type finiteWork struct {
 	large, mid, small *fspace
+	tilt              ftilt // the one-parameter objective (kept here so that the search allocates nothing)
 	brackets          [MaxLevels]Bracket
 }
 
@@ -118,7 +119,7 @@ func (s Solver) finiteBrackets(fw *finiteWork, dst []Bracket, f float64, k int, 
 			return dst, confined(n, why)
 		}
 		if s.Family == Tilt {
-			tb, ok := tiltBracket(w, af, b, lo, hi, warm, sign)
+			tb, ok := fw.tiltBracket(w, af, b, lo, hi, warm, sign)
 			if !ok {
 				return dst, confined(n, "the one-parameter tilt has no stationary energy below the downhill barrier")
 			}
@@ -236,12 +237,13 @@ func finiteRoundoff(p fparams, eta float64) float64 {
 // one, and the bracket reaches from it across [lo, hi], so that its Err
 // is the tilt's own distance from Poly's estimate plus Poly's
 // uncertainty.
-func tiltBracket(w squarewell.Well, af float64, b Bracket, lo, hi float64, warm []Bracket, sign float64) (Bracket, bool) {
+func (fw *finiteWork) tiltBracket(w squarewell.Well, af float64, b Bracket, lo, hi float64, warm []Bracket, sign float64) (Bracket, bool) {
 	st, err := w.State(1)
 	if err != nil {
 		return Bracket{}, false
 	}
-	t := newFtilt(w, st, af)
+	fw.tilt = newFtilt(w, st, af)
+	t := &fw.tilt
 	guess := 0.0
 	if len(warm) > 0 {
 		guess = sign * warm[0].Tilt

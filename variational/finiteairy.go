@@ -275,29 +275,36 @@ func downhillAt(v0, mu, f float64) downhill {
 	kappa0, s, t := barrierScale(v0, mu, f)
 	pp := math.Pi * math.Pi
 	dh := downhill{kappa0: kappa0, t: t}
-	q := s / f
-	var u, ud, udd, lnEsc float64
 	if t < biAsymptotic {
+		// Every product below is formed so that s cancels analytically:
+		// s underflows for the smallest fields.
 		U, V, D := biSums(t)
 		dh.sig = kappa0 * V / (mu * pp * U)
 		dh.d1 = -1.5 / kappa0 * D * (U + V) / (U * U)
 		dh.norm = -dh.d1
-		u = kappa0 / s * V / U
-		ud = 1.5 * s / kappa0 * D * (U + V) / (U * U)
-		udd = 1 - 2*u*ud
-		dh.d2 = udd / f
-		lnEsc = -2/t + math.Log(kappa0/s) - 2*math.Log(U)
-		dh.lnM0 = math.Log(U) - 0.5*math.Log(math.Pi) - 0.5*math.Log(kappa0/s)
+		uud := 1.5 * V * D * (U + V) / (U * U * U) // u·u̇
+		dh.d2 = (1 - 2*uud) / f
+		lnS := (math.Log(pp*mu) + math.Log(f)) / 3
+		lnEsc := -2/t + math.Log(kappa0) - lnS - 2*math.Log(U)
+		// ε = u_i/u = −e^lnEsc/u with u = (κ₀/s)V/U.
+		dh.eps = -math.Exp(lnEsc-math.Log(kappa0)+lnS) * U / V
+		if dh.eps != 0 {
+			// 2qu + q u̇/u with q = s/f.
+			dh.lnEps1 = 2*kappa0*V/(f*U) + pp*mu*1.5*D*(U+V)/(kappa0*kappa0*U*V)
+		}
+		dh.lnM0 = math.Log(U) - 0.5*math.Log(math.Pi) - 0.5*(math.Log(kappa0)-lnS)
+		return dh
 	} else {
 		z := s * v0 / f
+		q := s / f
 		a := airySmallAt(z)
 		e2 := math.Exp(-2 * a.zeta)
 		e4 := e2 * e2
 		Q := a.bi*a.bi + e4*a.ai*a.ai // M² e^(−2ζ)
-		u = (a.bip*a.bi + e4*a.aip*a.ai) / Q
+		u := (a.bip*a.bi + e4*a.aip*a.ai) / Q
 		mi := e4 / (pp * Q * Q) // 1/(π²M⁴)
-		ud = z - u*u + mi
-		udd = 1 - 2*u*ud - 4*u*mi
+		ud := z - u*u + mi
+		udd := 1 - 2*u*ud - 4*u*mi
 		k := s / (mu * pp)
 		dh.sig = k * u
 		dh.d1 = -k * q * ud
@@ -305,12 +312,12 @@ func downhillAt(v0, mu, f float64) downhill {
 		m02 := ai0*ai0 + bi0*bi0
 		mp0 := (-ai0*aip0 + bi0*bip0) / math.Sqrt(m02)
 		dh.norm = (z - u*u - mi + e2*(mp0*mp0+1/(pp*m02))/Q) / s
-		lnEsc = -math.Log(math.Pi*Q) - 2*a.zeta
+		lnEsc := -math.Log(math.Pi*Q) - 2*a.zeta
 		dh.lnM0 = 0.5 * math.Log(Q)
-	}
-	dh.eps = -math.Exp(lnEsc) / u
-	if dh.eps != 0 {
-		dh.lnEps1 = 2*q*u + q*ud/u
+		dh.eps = -math.Exp(lnEsc) / u
+		if dh.eps != 0 {
+			dh.lnEps1 = 2*q*u + q*ud/u
+		}
 	}
 	return dh
 }
@@ -329,6 +336,11 @@ func (dh downhill) lnMRatio(v0, mu, f, x float64) float64 {
 	}
 	kappa, s, t := barrierScale(vx, mu, f)
 	dz := -(2 * x / 3) * (kappa*kappa + kappa*dh.kappa0 + dh.kappa0*dh.kappa0) / (kappa + dh.kappa0)
+	if t < biAsymptotic && dh.t < biAsymptotic {
+		U, _, _ := biSums(t)
+		U0, _, _ := biSums(dh.t)
+		return math.Log(U/U0) - 0.5*math.Log(kappa/dh.kappa0) + dz
+	}
 	var lnM float64
 	if t < biAsymptotic {
 		U, _, _ := biSums(t)
@@ -368,11 +380,11 @@ func uphillAt(v0, mu, f float64) uphill {
 		uh.sig = kappa0 * V / (mu * pp * U)
 		uh.norm = 1.5 / kappa0 * D * (U + V) / (U * U)
 		uh.d1 = -uh.norm
-		u := -kappa0 / s * V / U
-		w := 1.5 * s / kappa0 * D * (U + V) / (U * U)
-		uh.d2 = -(1 + 2*u*w) / f
+		uw := -1.5 * V * D * (U + V) / (U * U * U) // u·w, s cancelling
+		uh.d2 = -(1 + 2*uw) / f
 		uh.decay = kappa0 * V / U
-		uh.lnA0 = -math.Log(2*math.Sqrt(math.Pi)) - 0.5*math.Log(kappa0/s) + math.Log(U)
+		lnS := (math.Log(pp*mu) + math.Log(f)) / 3
+		uh.lnA0 = -math.Log(2*math.Sqrt(math.Pi)) - 0.5*(math.Log(kappa0)-lnS) + math.Log(U)
 		return uh
 	}
 	a := aiAt(s * v0 / f)
@@ -393,6 +405,11 @@ func (uh uphill) lnAiRatio(v0, mu, f, x float64) float64 {
 	vx := v0 + f*x
 	kappa, s, t := barrierScale(vx, mu, f)
 	dz := (2 * x / 3) * (kappa*kappa + kappa*uh.kappa0 + uh.kappa0*uh.kappa0) / (kappa + uh.kappa0)
+	if t < aiAsymptotic && uh.t < aiAsymptotic {
+		U, _, _ := aiSums(t)
+		U0, _, _ := aiSums(uh.t)
+		return math.Log(U/U0) - 0.5*math.Log(kappa/uh.kappa0) - dz
+	}
 	var lnA float64
 	if t < aiAsymptotic {
 		U, _, _ := aiSums(t)

@@ -113,10 +113,10 @@ func newFwave(sp *fspace, lv flevel) *fwave {
 	return w
 }
 
-// At returns φ(ξ); 0 for NaN ξ.
+// At returns φ(ξ); 0 for NaN and infinite ξ.
 func (w *fwave) At(xi float64) float64 {
 	switch {
-	case math.IsNaN(xi):
+	case math.IsNaN(xi) || math.IsInf(xi, 0):
 		return 0
 	case xi < 0:
 		return w.psi0 * math.Exp(w.down.lnMRatio(w.vL, w.muL, w.f, -xi))
@@ -237,9 +237,9 @@ func newTiltWave(t ftilt, beta float64) *tiltWave {
 	return tw
 }
 
-// At returns ψ(ξ); 0 for NaN ξ.
+// At returns ψ(ξ); 0 for NaN and infinite ξ.
 func (w *tiltWave) At(xi float64) float64 {
-	if math.IsNaN(xi) {
+	if math.IsNaN(xi) || math.IsInf(xi, 0) {
 		return 0
 	}
 	return w.st.At(xi) * math.Exp(-w.beta*(xi-0.5)) * w.scale
