@@ -325,8 +325,9 @@ func downhillAt(v0, mu, f float64) downhill {
 // lnMRatio returns ln(M(z)/M(z₀)) at the distance x ≥ 0 into the downhill
 // barrier (ξ = −x), for a barrier v0 above the level at the interface:
 // ln M − ζ from the series or the expansion at each point, and
-// ζ − ζ₀ = −(2x/3)(κ² + κκ₀ + κ₀²)/(κ + κ₀) with κ = π√(μ(V₀ − fx)),
-// which follows from ζ = 2κ³/(3π²μf) without cancellation. Beyond the
+// ζ − ζ₀ = −(2x/3)(κ² + κκ₀ + κ₀²)/(κ + κ₀) = −(2x/3)(κ + κ₀²/(κ + κ₀))
+// with κ = π√(μ(V₀ − fx)), which follows from ζ = 2κ³/(3π²μf) without
+// cancellation (or overflow). Beyond the
 // turning point it takes M from modulusNeg.
 func (dh downhill) lnMRatio(v0, mu, f, x float64) float64 {
 	vx := v0 - f*x
@@ -335,7 +336,7 @@ func (dh downhill) lnMRatio(v0, mu, f, x float64) float64 {
 		return math.Log(modulusNeg(-s*vx/f)) - dh.lnM0 - 1/dh.t
 	}
 	kappa, s, t := barrierScale(vx, mu, f)
-	dz := -(2 * x / 3) * (kappa*kappa + kappa*dh.kappa0 + dh.kappa0*dh.kappa0) / (kappa + dh.kappa0)
+	dz := -(2 * x / 3) * (kappa + dh.kappa0*dh.kappa0/(kappa+dh.kappa0))
 	if t < biAsymptotic && dh.t < biAsymptotic {
 		U, _, _ := biSums(t)
 		U0, _, _ := biSums(dh.t)
@@ -400,11 +401,11 @@ func uphillAt(v0, mu, f float64) uphill {
 
 // lnAiRatio returns ln(Ai(z)/Ai(z₀)) at the distance x ≥ 0 into the uphill
 // barrier, for a barrier v0 above the level at the interface, with
-// ζ − ζ₀ = (2x/3)(κ² + κκ₀ + κ₀²)/(κ + κ₀), κ = π√(μ(V₀ + fx)).
+// ζ − ζ₀ = (2x/3)(κ + κ₀²/(κ + κ₀)), κ = π√(μ(V₀ + fx)).
 func (uh uphill) lnAiRatio(v0, mu, f, x float64) float64 {
 	vx := v0 + f*x
 	kappa, s, t := barrierScale(vx, mu, f)
-	dz := (2 * x / 3) * (kappa*kappa + kappa*uh.kappa0 + uh.kappa0*uh.kappa0) / (kappa + uh.kappa0)
+	dz := (2 * x / 3) * (kappa + uh.kappa0*uh.kappa0/(kappa+uh.kappa0))
 	if t < aiAsymptotic && uh.t < aiAsymptotic {
 		U, _, _ := aiSums(t)
 		U0, _, _ := aiSums(uh.t)

@@ -158,9 +158,16 @@ func (w *fwave) support() (lo, hi float64) {
 	hi = 1 + tailLength(w.psi1, w.up.decay, tiny)
 	// Downhill: φ ∝ M rises from the turning point to the interface, so
 	// ∫ from ξ_t to ξ is at most (ξ − ξ_t)φ(ξ)²; bisect for where that
-	// is tiny.
-	g := func(x float64) float64 { v := w.At(x); return (x - w.xiT) * v * v }
+	// is tiny. When the turning point is very far (the weakest fields,
+	// where it may not even be finite), start instead where the tail is
+	// already negligible: within 3V₀/(4f) of the interface the decay rate
+	// is at least κ₀/2.
 	a, b := w.xiT, 0.0
+	if l := tailLength(w.psi0, w.down.kappa0/2, tiny); !(a > -1e6) && l < 0.75*w.vL/w.f {
+		a = -2 * l
+	}
+	x0 := a
+	g := func(x float64) float64 { v := w.At(x); return (x - x0) * v * v }
 	if g(b) <= tiny {
 		return b, hi
 	}
@@ -237,12 +244,20 @@ func newTiltWave(t ftilt, beta float64) *tiltWave {
 	return tw
 }
 
-// At returns ψ(ξ); 0 for NaN and infinite ξ.
+// At returns ψ(ξ); 0 for NaN and infinite ξ. The exponents of each tail
+// are combined before exponentiating, so that a decaying factor that
+// underflows never meets a growing one that overflows.
 func (w *tiltWave) At(xi float64) float64 {
-	if math.IsNaN(xi) || math.IsInf(xi, 0) {
+	st := w.st
+	switch {
+	case math.IsNaN(xi) || math.IsInf(xi, 0):
 		return 0
+	case xi < 0:
+		return st.A * math.Exp(st.KL*xi-w.beta*(xi-0.5)) * w.scale
+	case xi > 1:
+		return st.C * math.Exp(-st.KR*(xi-1)-w.beta*(xi-0.5)) * w.scale
 	}
-	return w.st.At(xi) * math.Exp(-w.beta*(xi-0.5)) * w.scale
+	return st.B * math.Sin(st.K*xi+st.DL) * math.Exp(-w.beta*(xi-0.5)) * w.scale
 }
 
 // Support implements [tiltwell.Spread].
