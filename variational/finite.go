@@ -169,7 +169,7 @@ func finiteLevelBracket(n int, p fparams, lv, lm, ls flevel, prev float64) (b Br
 	conv := finiteConvergence(p, lv, lm, ls, ro)
 	rem := 0.0
 	if lv.gamma > 0 {
-		x := math.Abs(lv.shift) / (lv.gamma / 2)
+		x := 2 * math.Abs(lv.shift) / lv.gamma // not /(γ/2): γ/2 underflows for the narrowest levels
 		rem = x * (1 + 3*lv.e.eps*lv.e.eps)
 		if !(rem <= maxEscapeRemainder) {
 			return Bracket{}, 0, 0, fmt.Sprintf("too broad for the real variational problem (Γ ≈ %.3g, escape remainder %.2g)", lv.gamma, rem)

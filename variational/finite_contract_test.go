@@ -329,3 +329,24 @@ func TestFiniteConcurrent(t *testing.T) {
 		t.Error(err)
 	}
 }
+
+// TestFiniteNarrowLevelsConfined checks that levels whose escape width is
+// far below the smallest float64 are confined, not refused: the ratio of
+// the second-order shift to Γ₁/2 is formed as 2|δ₂|/Γ₁, since Γ₁/2
+// underflowed to 0 for a Γ₁ of 5e-324 and made it 0/0 (a random well of
+// the exact grid, rounded: at f = 1.5 the exact solver confines seven
+// levels, with Γ from below 1e-300 to 2e-7).
+func TestFiniteNarrowLevelsConfined(t *testing.T) {
+	t.Parallel()
+	st := mustWell(t, 41.5, 1.866, 48.08, 1.682)
+	for _, f := range []float64{1.5, -1.5, 0.3} {
+		ref, err := exact.Solver{Stack: st}.Levels(nil, f, variational.MaxLevels)
+		if _, ok := tiltwell.Confined(err); err != nil && !ok {
+			t.Fatal(err)
+		}
+		got, err := variational.Solver{Stack: st}.Levels(nil, f, variational.MaxLevels)
+		if len(got) < len(ref) {
+			t.Errorf("f=%g: %d levels (%v), exact confines %d", f, len(got), err, len(ref))
+		}
+	}
+}

@@ -93,6 +93,15 @@ const MaxExtra = maxRitzDim
 //
 //	Energy − Err ≤ η_n ≤ Energy.
 //
+// On a finite well (Stack a three-layer stack) the zero-field levels are
+// bracketed the same way, proven, by Kato's inclusion; under a field the
+// Poly family reports the real variational level and the Tilt family the
+// one-parameter stationary value, each with an estimated Err that includes
+// the escape shift, Gamma = 0 and the escape width it leaves out in
+// GammaErr (see the package documentation, "Finite wells"). Other stacks,
+// and the Sine family on a finite well, give an error wrapping
+// [errors.ErrUnsupported].
+//
 // The zero value uses the Poly family with its default size. A Solver holds
 // configuration only and is safe for concurrent use.
 type Solver struct {
@@ -205,8 +214,12 @@ func (s Solver) dim(n int) int {
 }
 
 // Levels implements [tiltwell.Solver]. Energy is the upper bound of each
-// level's bracket and Err its width (see [Solver.Brackets]). If dst has
-// capacity for k levels, Levels does not allocate.
+// level's bracket and Err its width (see [Solver.Brackets]); on a finite
+// well at f ≠ 0, Energy is the bracket's Energy and Err its larger
+// distance to an end ([Bracket.Level]). When a finite well confines fewer
+// than k levels, Levels returns the confined ones with a
+// [*tiltwell.ConfinedError]. If dst has capacity for k levels, Levels does
+// not allocate.
 //
 // Special cases are:
 //
@@ -247,7 +260,10 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 // Brackets appends the brackets of the lowest k levels at reduced field f
 // to dst[:0] and returns the result. If dst is nil, a new slice is
 // allocated and returned; if it has capacity for k brackets, Brackets does
-// not allocate.
+// not allocate. On a finite well that confines fewer than k levels it
+// returns the confined ones with a [*tiltwell.ConfinedError]; there the
+// Poly family does not search its tilt (warm is ignored) and the Tilt
+// family starts its one-parameter search from warm[0].Tilt.
 //
 // If warm is not nil, warm[i].Tilt (for i < len(warm)) is the starting
 // point of the tilt search for level i+1, as returned by a call at a nearby
@@ -304,7 +320,10 @@ func (s Solver) Brackets(dst []Bracket, f float64, k int, warm []Bracket) ([]Bra
 // field's optimum with a small first step. The saving is modest: a cold
 // search already takes only about seven Ritz evaluations, and the
 // verification of each bracket, which is not shared between fields, costs
-// as much again. If dst is nil, a new slice is allocated and returned.
+// as much again. If dst is nil, a new slice is allocated and returned. On
+// a finite well, a field that confines fewer than k levels ends the sweep:
+// Sweep returns the brackets so far, those of that field included, with
+// its [*tiltwell.ConfinedError].
 func (s Solver) Sweep(dst []Bracket, fs []float64, k int) ([]Bracket, error) {
 	dst = dst[:0]
 	for _, f := range fs {
