@@ -125,20 +125,22 @@ func taylorStep(st *rstate, h, mu, lam, beta, lamd float64) {
 	d0, d1 := st.u.d, mu*st.w.d*h
 	U, W := e0+e1, e1
 	Ud, Wd := d0+d1, d1
-	size := math.Abs(e0) + math.Abs(e1)
-	sized := math.Abs(d0) + math.Abs(d1)
+	tol := 0x1p-60 * (math.Abs(e0) + math.Abs(e1))
+	told := 0x1p-60 * (math.Abs(d0) + math.Abs(d1) + (math.Abs(e0)+math.Abs(e1))*math.Abs(Ad))
 	var em1, dm1 float64 // e_(k−1), d_(k−1)
 	ek, ek1, dk, dk1 := e0, e1, d0, d1
 	for k := 0; k+2 < maxTaylor; k++ {
-		inv := 1 / float64((k+2)*(k+1))
+		inv := taylorInv[k]
 		e2 := (A*ek + B*em1) * inv
 		d2 := (A*dk + Ad*ek + B*dm1) * inv
-		kk := float64(k + 2)
+		kk := taylorK[k]
 		U += e2
 		W += kk * e2
 		Ud += d2
 		Wd += kk * d2
-		if k >= 2 && math.Abs(e2)+math.Abs(ek1) <= 0x1p-60*size && math.Abs(d2)+math.Abs(dk1) <= 0x1p-60*(sized+size*math.Abs(Ad)) {
+		// Two small terms in a row (the three-term recurrence can
+		// make one small by accident); checked every other term.
+		if k&1 == 1 && math.Abs(e2)+math.Abs(ek1) <= tol && math.Abs(d2)+math.Abs(dk1) <= told {
 			break
 		}
 		em1, dm1 = ek, dk
@@ -154,6 +156,15 @@ func taylorStep(st *rstate, h, mu, lam, beta, lamd float64) {
 	st.steps++
 	st.renorm()
 }
+
+// taylorInv[k] = 1/((k+2)(k+1)) and taylorK[k] = k+2.
+var taylorInv, taylorK = func() (inv, kk [maxTaylor]float64) {
+	for k := range inv {
+		inv[k] = 1 / float64((k+2)*(k+1))
+		kk[k] = float64(k + 2)
+	}
+	return inv, kk
+}()
 
 // taylorPart carries st from x0 to x1 (either direction) through part of a
 // layer with edge v and mass mu at field f ≥ 0, in Taylor steps.

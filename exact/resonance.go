@@ -164,6 +164,21 @@ func (c *calc) evalAll(a *allEval, eta, ref float64) {
 	}
 }
 
+// thickInner reports whether some inner layer is a barrier at η that
+// holds the solution's growth to more than e^3 (∫κ > 3 at the lower of
+// its ends): only then does it matter at which interface a level is
+// matched.
+func (c *calc) thickInner(eta float64) bool {
+	for j := 1; j < c.n-1; j++ {
+		lo, hi, v, mu := c.layer(j)
+		q := v + c.f*(lo-0.5) - eta
+		if q > 0 && math.Pi*math.Sqrt(mu*q)*(hi-lo) > 3 {
+			return true
+		}
+	}
+	return false
+}
+
 // flattest returns the interface where dD/dη is smallest. By the Prüfer
 // identity dϑ/dη = S π² ∫φ²/(S²φ² + w²), at a level that is where the
 // level's wavefunction is largest: both solutions reach it growing
@@ -261,9 +276,15 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	if !(eta > lo && eta < hi) {
 		eta = mid(lo, hi)
 	}
-	all := c.n > 3 && c.n <= maxSelect
+	// sel: the stack has several interfaces to choose from; full: this
+	// iteration evaluates them all (the first, and after a rejected
+	// step).
+	sel := c.n > 3 && c.n <= maxSelect
+	// Without thick inner barriers every interface does: start at the
+	// default one.
+	full := sel && c.thickInner(eta)
 	var ae *allEval
-	if all {
+	if sel {
 		ae = allPool.Get().(*allEval)
 		defer allPool.Put(ae)
 	}
@@ -296,7 +317,8 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	for it := 1; it <= 200; it++ {
 		var r evalResult
 		next, ok := 0.0, false
-		if all {
+		wasFull := full
+		if full {
 			c.evalAll(ae, eta, ref)
 			// The shortest Newton step that stays in the bracket; if
 			// none does, the equation where the previous step was
@@ -312,6 +334,9 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			if !ok {
 				r = c.match(ae.L[m], ae.R[m], ae.S[m])
 			}
+			S = ae.S[m]
+			full = false
+			havePrev = false
 		} else {
 			r = c.eval(eta, m, S)
 			next, ok = newtonNext(r.D-target, r.Dp)
@@ -339,13 +364,18 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 		lastEta, lastFp, lastLg, lastM = eta, wronskSlope(&r), r.L.lg+r.R.lg, m
 		done := func(eta, err float64) (realLevel, error) {
 			evalEta := evalEta
-			if all {
-				// Match where the level lives.
+			if sel && (wasFull || c.thickInner(evalEta)) {
+				// Match where the level lives (it matters only
+				// across thick inner barriers).
+				if !wasFull {
+					c.evalAll(ae, evalEta, ref)
+				}
 				r, m = c.flattest(ae)
 				S = ae.S[m]
 				if r.Dp > 0 {
 					err = max(err, 2*r.errD/r.Dp+2*ulp)
 				}
+				pEta, pFp = math.NaN(), math.NaN()
 			}
 			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it, prevEta: pEta, prevFp: pFp}, nil
 		}
@@ -359,7 +389,7 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 				return done(nx, 2*r.errD/dp+2*ulp)
 			}
 			curv := 0.0
-			if havePrev && eta != prevEta && !all {
+			if havePrev && eta != prevEta {
 				curv = math.Abs((dp - prevDp) / (eta - prevEta) / (2 * dp))
 			}
 			prevEta, prevDp, havePrev = eta, dp, true
@@ -373,7 +403,9 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 				continue
 			}
 		}
-		// Illinois step between the bracket ends.
+		// Illinois step between the bracket ends, and a fresh look at
+		// where to match.
+		full = sel
 		a, b, ga, gb := lo, hi, glo, ghi
 		switch {
 		case side < 0:

@@ -288,45 +288,87 @@ func (c *calc) nth(n int, f float64) (stackLevel, error) {
 }
 
 // model returns a starting value for level n when the reference layer has
-// barriers on both sides (NaN otherwise): the zero-field level of the
-// reference well between its neighbours taken as semi-infinite barriers,
-// from the phase condition
+// confining sides (NaN otherwise): the zero-field level of the reference
+// well, from the phase condition
 //
-//	k + atan(μ_L k/κ_L) + atan(μ_R k/κ_R) = nπ,   κ = π√(μ(v − η)),
+//	k + δ_L + δ_R = nπ,   δ = atan2(k φ, ±w)
 //
-// shifted by the Stark shift of the infinite well of the equivalent width
-// L = nπ/k (at the field f L³ in its own units, scaled by 1/L²) from the
-// infinite solver's own starting models (second order and triangular).
+// with (φ, w) the zero-field solution that decays away from the well on
+// each side, carried through that side's layers to the well's edge (for a
+// single barrier δ = atan(μk/κ), κ = π√(μ(v − η))); then shifted by the
+// Stark shift of the infinite well of the equivalent width L = nπ/k (at
+// the field f L³ in its own units, scaled by 1/L²) from the infinite
+// solver's own starting models (second order and triangular).
 func (c *calc) model(n int) float64 {
 	r := c.ref()
-	_, _, vl, ml := c.layer(r - 1)
-	_, _, vr, mr := c.layer(r + 1)
-	if !(vl > 0 && vr > 0) || n > MaxLevels {
+	_, _, v0, _ := c.layer(0)
+	_, _, vn, _ := c.layer(c.n - 1)
+	if !(v0 > 0 && vn > 0) || n > MaxLevels {
 		return math.NaN()
 	}
-	g := func(k float64) (float64, float64) {
+	// side returns the phase δ of one side at wave number k and dδ/dk,
+	// or ok false if the side does not confine or its solution has a
+	// zero (the side holds a level of its own).
+	side := func(k float64, left bool) (d, dd float64, ok bool) {
 		eta := k * k / (math.Pi * math.Pi)
-		kl := math.Pi * math.Sqrt(ml*max(vl-eta, 0))
-		kr := math.Pi * math.Sqrt(mr*max(vr-eta, 0))
-		al, ar := math.Atan2(ml*k, kl), math.Atan2(mr*k, kr)
-		// d/dk atan2(μk, κ) with dκ/dk = −μk/κ: μ(κ² + μk²)/(κ(κ² + μ²k²)).
-		dl := ml * (kl*kl + ml*k*k) / (kl*(kl*kl+ml*ml*k*k) + 1e-300)
-		dr := mr * (kr*kr + mr*k*k) / (kr*(kr*kr+mr*mr*k*k) + 1e-300)
-		return k + al + ar - float64(n)*math.Pi, 1 + dl + dr
+		var st rstate
+		if left {
+			_, _, v, mu := c.layer(0)
+			if !(v > eta) {
+				return 0, 0, false
+			}
+			kap := math.Pi * math.Sqrt(mu*(v-eta))
+			st = rstate{u: dual{1, 0}, w: dual{kap / mu, -math.Pi * math.Pi / (2 * kap)}}
+			for j := 1; j < r; j++ {
+				lo, hi, v, mu := c.layer(j)
+				zeroFieldLayer(&st, hi-lo, v, mu, eta)
+			}
+		} else {
+			_, _, v, mu := c.layer(c.n - 1)
+			if !(v > eta) {
+				return 0, 0, false
+			}
+			kap := math.Pi * math.Sqrt(mu*(v-eta))
+			st = rstate{u: dual{1, 0}, w: dual{-kap / mu, math.Pi * math.Pi / (2 * kap)}}
+			for j := c.n - 2; j > r; j-- {
+				lo, hi, v, mu := c.layer(j)
+				zeroFieldLayer(&st, lo-hi, v, mu, eta)
+			}
+			st.w = dual{-st.w.v, -st.w.d}
+		}
+		if st.nodes != 0 || !(st.u.v > 0) {
+			return 0, 0, false
+		}
+		// δ = atan2(kφ, w); dη/dk = 2k/π².
+		y, x := k*st.u.v, st.w.v
+		e := 2 * k / (math.Pi * math.Pi)
+		yd := st.u.v + k*st.u.d*e
+		xd := st.w.d * e
+		return math.Atan2(y, x), (yd*x - y*xd) / (x*x + y*y), true
 	}
-	kt := math.Pi * math.Sqrt(min(vl, vr))
-	lo, hi := 0.0, min(float64(n)*math.Pi, kt)
-	if v, _ := g(hi); v < 0 {
+	g := func(k float64) (float64, float64, bool) {
+		dl, dld, ok1 := side(k, true)
+		dr, drd, ok2 := side(k, false)
+		return k + dl + dr - float64(n)*math.Pi, 1 + dld + drd, ok1 && ok2
+	}
+	kt := math.Pi * math.Sqrt(min(v0, vn))
+	lo, hi := 0.0, min(float64(n)*math.Pi, kt*(1-1e-12))
+	if v, _, ok := g(hi); !ok || v < 0 {
 		return math.NaN() // beyond the model's bound levels
 	}
-	// Start from the penetration estimate: each wall widens the well by
-	// about μ/κ.
-	k := float64(n) * math.Pi / (1 + ml/(math.Pi*math.Sqrt(ml*vl)) + mr/(math.Pi*math.Sqrt(mr*vr)))
+	// Start from the penetration estimate of the outer barriers.
+	_, _, _, ml := c.layer(0)
+	_, _, _, mr := c.layer(c.n - 1)
+	k := float64(n) * math.Pi / (1 + ml/(math.Pi*math.Sqrt(ml*v0)) + mr/(math.Pi*math.Sqrt(mr*vn)))
 	if !(k > lo && k < hi) {
 		k = 0.5 * (lo + hi)
 	}
-	for range 12 {
-		v, d := g(k)
+	// A start good to about 1e-8 is all the solver needs.
+	for range 8 {
+		v, d, ok := g(k)
+		if !ok {
+			return math.NaN()
+		}
 		if v > 0 {
 			hi = k
 		} else {
@@ -336,7 +378,7 @@ func (c *calc) model(n int) float64 {
 		if !(nk > lo && nk < hi) {
 			nk = 0.5 * (lo + hi)
 		}
-		if math.Abs(nk-k) < 1e-9*k {
+		if math.Abs(nk-k) < 1e-8*k {
 			k = nk
 			break
 		}
