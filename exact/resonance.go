@@ -346,9 +346,6 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			return realLevel{}, fmt.Errorf("exact: level %d at f = %g: the stack's layers hold more than %d Taylor steps at this field: %w", n, c.f, maxSteps, tiltwell.ErrOutOfRange)
 		}
 		g := r.D - target
-		if traceNewton {
-			fmt.Printf("   it=%d m=%d η=%.17g g=%.3g Dp=%.3g [%.6g, %.6g]\n", it, m, eta, g, r.Dp, lo, hi)
-		}
 		if g > 0 {
 			hi, ghi = eta, g
 		} else {
@@ -431,8 +428,6 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 }
 
 var allPool = sync.Pool{New: func() any { return new(allEval) }}
-
-var traceNewton = false
 
 // mid returns the midpoint of [lo, hi], or a finite point inside it when
 // an end is infinite.

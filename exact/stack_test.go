@@ -2,7 +2,6 @@ package exact
 
 import (
 	"errors"
-	"fmt"
 	"math"
 	"math/cmplx"
 	"testing"
@@ -644,13 +643,10 @@ func shootResonance(v, mu, f float64, start complex128, xo, xr, h float64) compl
 	}
 	a, b := start, start+complex(1e-7, -1e-7*math.Abs(imag(start))-1e-12)
 	fa, fb := mismatch(a), mismatch(b)
-	for it := range 60 {
+	for range 60 {
 		c := b - fb*(b-a)/(fb-fa)
 		a, fa = b, fb
 		b, fb = c, mismatch(c)
-		if traceNewton {
-			fmt.Printf("  shoot %d: %.15g |F| = %.3g\n", it, b, cmplx.Abs(fb))
-		}
 		if cmplx.Abs(b-a) < 1e-15 {
 			break
 		}
