@@ -207,8 +207,8 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg seg
 // allowedPart carries st across an allowed stretch at f > 0: by the Airy
 // transfer (milnePart) when the stretch spans at least one unit of z and
 // no wavefunction is being recorded, by Taylor steps otherwise.
-func allowedPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg segInfo, ls layerScale) {
-	if rec == nil && ls.s*math.Abs(x1-x0) >= 1 && ls.c*(eta-v-f*(min(x0, x1)-0.5)) < 1e8 {
+func allowedPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg segInfo, ls layerScale, taylorOnly bool) {
+	if rec == nil && !taylorOnly && ls.s*math.Abs(x1-x0) >= 1 && ls.c*(eta-v-f*(min(x0, x1)-0.5)) < 1e8 {
 		milnePart(st, x0, x1, v, mu, f, eta, &ls)
 		return
 	}
@@ -418,9 +418,10 @@ type calc struct {
 	n      int
 	f      float64
 	mirror bool
-	// forceBroad makes every quasi-bound level take the complex path
-	// (tests compare the two).
-	forceBroad bool
+	// forceBroad makes every quasi-bound level take the complex path,
+	// and taylorOnly every allowed stretch Taylor steps (tests compare
+	// the formulations).
+	forceBroad, taylorOnly bool
 	// scales caches the layer scales of the first layers and of the last
 	// one (scales[cachedScales]).
 	scales [cachedScales + 1]layerScale
@@ -491,7 +492,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	qhi := v + f*(hi-0.5) - eta
 	if qhi <= 0 {
 		// Allowed throughout.
-		allowedPart(st, x0, x1, v, mu, f, eta, rec, seg, c.scale(j))
+		allowedPart(st, x0, x1, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
 		return
 	}
 	// The forbidden part [xt, hi] with xt the turning point (or lo).
@@ -509,11 +510,11 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 		if xt > lo {
 			// An allowed stretch and a thin forbidden one.
 			if dir > 0 {
-				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, c.scale(j))
+				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
 				taylorPart(st, xt, hi, v, mu, f, eta, rec, seg)
 			} else {
 				taylorPart(st, hi, xt, v, mu, f, eta, rec, seg)
-				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, c.scale(j))
+				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
 			}
 			return
 		}
@@ -525,7 +526,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	seg.kind, seg.ls, seg.a, seg.b, seg.la, seg.lb = segThick, ls, a, b, xt, hi
 	if dir > 0 {
 		if xt > lo {
-			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j))
+			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
 		}
 		if rec != nil {
 			seg.to = hi
@@ -540,6 +541,6 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	}
 	thickLeft(st, &a, &b, gAi)
 	if xt > lo {
-		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j))
+		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
 	}
 }
