@@ -698,14 +698,14 @@ func TestStackBruteForce(t *testing.T) {
 // the transmission factor of the abrupt wall, with k and κ = π√q on either
 // side of it and q = v − f/2 − η the barrier's height above the level
 // there). Its own accuracy is O(1/S) (the quasiclassical connection at the
-// outer turning point) and O(1/κ); Γ is checked over 46 to 660 in 2S,
-// Γ from 1e-20 to 1e-285.
+// outer turning point) and O(1/κ); Γ is checked over 46 to 690 in 2S,
+// Γ from 1e-20 to 1e-299, and below the 1e-300 floor.
 func TestStackGamow(t *testing.T) {
 	t.Parallel()
 	const v = 1e4
 	s := Solver{Stack: mustWell(t, v, 1)}
 	for _, n := range []int{1, 3} {
-		for _, decades := range []float64{20, 40, 90, 185, 285} {
+		for _, decades := range []float64{20, 40, 90, 185, 285, 298, 320} {
 			// f such that 2S is about decades·ln 10 at η ≈ 0.
 			f := 2.0 / 3 * math.Pi * math.Pow(v, 1.5) / (decades * math.Ln10 / 2)
 			l, err := s.Level(f, n)
@@ -721,6 +721,14 @@ func TestStackGamow(t *testing.T) {
 			S := 2.0 / 3 * math.Pi * q * math.Sqrt(q) / f
 			// Γ/Γ_qc in logarithms, since Γ_qc itself may underflow.
 			lnQC := math.Log(4*k*kap/(k*k+kap*kap)/T) - 2*S
+			if lnQC < math.Log(gammaFloor)-1 {
+				// Below the floor: reported as 0 with the floor as an
+				// upper bound.
+				if l.Gamma != 0 || l.GammaErr != gammaFloor {
+					t.Errorf("n=%d f=%.5g: Γ_qc = e^%.1f, got Γ = %g ± %g, want 0 ± 1e-300", n, f, lnQC, l.Gamma, l.GammaErr)
+				}
+				continue
+			}
 			r := math.Exp(math.Log(l.Gamma) - lnQC)
 			if math.Abs(r-1) > 0.2/S+1e-3 {
 				t.Errorf("n=%d f=%.5g (2S = %.0f): Γ = %.6g, quasiclassical ratio %.6f", n, f, 2*S, l.Gamma, r)

@@ -70,6 +70,11 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 		return out, "", nil
 	}
 	why, err := c.escape(&out)
+	if err == nil && why == "" && !(out.lv.Energy+out.lv.Err < ec) {
+		// The resonance's own η_r (it may move above η₀) is at or above
+		// the ceiling.
+		return out, "above the barrier", nil
+	}
 	return out, why, err
 }
 
