@@ -699,7 +699,7 @@ func TestStackBruteForce(t *testing.T) {
 // side of it and q = v − f/2 − η the barrier's height above the level
 // there). Its own accuracy is O(1/S) (the quasiclassical connection at the
 // outer turning point) and O(1/κ); Γ is checked over 46 to 690 in 2S,
-// Γ from 1e-3 to 1e-298, and below the 1e-300 floor.
+// Γ from about 1e-20 to 1e-298, and below the 1e-300 floor.
 func TestStackGamow(t *testing.T) {
 	t.Parallel()
 	const v = 1e4
