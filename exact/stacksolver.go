@@ -114,7 +114,12 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	delta := eta - rl.evalEta
 	Fp := wronskSlope(&rl.res)
 	fpp := math.NaN() // F_r″/F_r′
-	if d := rl.evalEta - rl.prevEta; !math.IsNaN(rl.prevFp) && math.Abs(d) > 1e-7*sp && math.Abs(d) < 0.1*sp {
+	// The difference quotient over the previous step d errs by about
+	// d F‴/(2F′), which the carry multiplies by δ: it is used only when
+	// d is small (as after a good start), so that δ·d stays far below
+	// the rounding of ln Γ.
+	d := rl.evalEta - rl.prevEta
+	if !math.IsNaN(rl.prevFp) && math.Abs(d) > 1e-9*sp && math.Abs(d) < 1e-5*sp {
 		fpp = (Fp - rl.prevFp) / (d * Fp)
 	}
 	if delta != 0 && (math.IsNaN(fpp) || math.Abs(delta) > 1e-6*sp) {
@@ -180,8 +185,9 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	out.lv.Gamma = gamma
 	// Rounding, the level's own error carried through d ln Γ/dη, the
 	// neglected third order, and the first-order carry over δ (its
-	// second-order remainder).
-	carry := delta * delta * chi * chi
+	// second-order remainder and the error of F_r″ over d, taken as
+	// |δ d| χ²).
+	carry := delta*delta*chi*chi + math.Abs(delta*d)*chi*chi
 	out.lv.GammaErr = gamma * (relRound + (math.Abs(chi1)+2*math.Abs(kappa2))*rl.err + 4*gc*gc + carry)
 	return "", nil
 }
