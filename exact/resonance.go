@@ -34,6 +34,9 @@ func (c *calc) leftBC(eta float64) (lam dual, lnPrest, zeta float64) {
 	}
 	q := max(v+c.f*(hi-0.5)-eta, 0)
 	ls := c.scale(0)
+	if z := ls.c * q; z < posStart {
+		return ls.modulusTable(z)
+	}
 	p := ls.forbOne(q, true)
 	return ls.modulusBC(&p)
 }
@@ -48,6 +51,9 @@ func (c *calc) rightBC(eta float64) dual {
 	}
 	q := max(v+c.f*(lo-0.5)-eta, 0)
 	ls := c.scale(c.n - 1)
+	if z := ls.c * q; z < posStart {
+		return ls.aiTable(z)
+	}
 	p := ls.forbOne(q, false)
 	return p.ld
 }
@@ -228,7 +234,11 @@ func (c *calc) scaleAt(m int, eta float64) float64 {
 	lo, _, v, mu := c.layer(m)
 	q := v + c.f*(lo-0.5) - eta
 	l := math.Pi * math.Pi * mu * math.Abs(q)
-	s2 := math.Pow(math.Pi*math.Pi*mu*c.f, 2.0/3)
+	s2 := 0.0
+	if c.f > 0 {
+		sc := c.scale(m)
+		s2 = sc.s * sc.s
+	}
 	return math.Sqrt(max(l, s2, 1)) / mu
 }
 
@@ -243,10 +253,16 @@ type realLevel struct {
 	m       int
 	S       float64
 	its     int
-	// The Wronskian slope F_r′ of the evaluation before last, at prevEta,
-	// scaled to res's log-scales (NaN if there was none at the same
-	// matching point): with res's it gives F_r″.
-	prevEta, prevFp float64
+	// The Wronskian F_r and its slope F_r′ of the evaluation before last,
+	// at prevEta, scaled to res's log-scales (NaN if there was none at the
+	// same matching point): with res's they give F_r″.
+	prevEta, prevF, prevFp float64
+}
+
+// wronsk returns F_r = φ_L w_R − w_L φ_R from r's solutions (in their
+// scaled units).
+func wronsk(r *evalResult) float64 {
+	return r.L.u.v*r.R.w.v - r.L.w.v*r.R.u.v
 }
 
 // wronskSlope returns F_r′ = d/dη (φ_L w_R − w_L φ_R) from the duals of r's
@@ -294,8 +310,8 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	var prevEta, prevDp float64
 	havePrev := false
 	side := 0 // Illinois: which end was kept last
-	// The last evaluation's η, F_r′ and log-scale, for F_r″.
-	lastEta, lastFp, lastLg, lastM := math.NaN(), math.NaN(), 0.0, -1
+	// The last evaluation's η, F_r, F_r′ and log-scale, for F_r″.
+	lastEta, lastF, lastFp, lastLg, lastM := math.NaN(), math.NaN(), math.NaN(), 0.0, -1
 	// newtonNext returns the θ-Newton step from η for the equation
 	// value g with slope dp, and whether it lies inside the bracket.
 	newtonNext := func(g, dp float64) (float64, bool) {
@@ -353,12 +369,14 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 		}
 		dp := r.Dp
 		ulp := eps * max(1, math.Abs(eta))
-		// F_r′ of the evaluation before this one, in this one's scale.
-		pEta, pFp := lastEta, math.NaN()
+		// F_r and F_r′ of the evaluation before this one, in this one's
+		// scale.
+		pEta, pF, pFp := lastEta, math.NaN(), math.NaN()
 		if lastM == m {
-			pFp = lastFp * math.Exp(lastLg-(r.L.lg+r.R.lg))
+			sc := math.Exp(lastLg - (r.L.lg + r.R.lg))
+			pF, pFp = lastF*sc, lastFp*sc
 		}
-		lastEta, lastFp, lastLg, lastM = eta, wronskSlope(&r), r.L.lg+r.R.lg, m
+		lastEta, lastF, lastFp, lastLg, lastM = eta, wronsk(&r), wronskSlope(&r), r.L.lg+r.R.lg, m
 		done := func(eta, err float64) (realLevel, error) {
 			evalEta := evalEta
 			if sel && (wasFull || c.thickInner(evalEta)) {
@@ -372,9 +390,9 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 				if r.Dp > 0 {
 					err = max(err, 2*r.errD/r.Dp+2*ulp)
 				}
-				pEta, pFp = math.NaN(), math.NaN()
+				pEta, pF, pFp = math.NaN(), math.NaN(), math.NaN()
 			}
-			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it, prevEta: pEta, prevFp: pFp}, nil
+			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it, prevEta: pEta, prevF: pF, prevFp: pFp}, nil
 		}
 		if dp > 0 && !math.IsInf(dp, 0) {
 			step := g / dp

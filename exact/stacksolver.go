@@ -114,21 +114,32 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	delta := eta - rl.evalEta
 	Fp := wronskSlope(&rl.res)
 	fpp := math.NaN() // F_r″/F_r′
-	// The difference quotient over the previous step d errs by about
-	// d F‴/(2F′), which the carry multiplies by δ: it is used only when
-	// d is small (as after a good start), so that δ·d stays far below
-	// the rounding of ln Γ.
-	d := rl.evalEta - rl.prevEta
-	if !math.IsNaN(rl.prevFp) && math.Abs(d) > 1e-9*sp && math.Abs(d) < 1e-5*sp {
-		fpp = (Fp - rl.prevFp) / (d * Fp)
+	// F_r″ at evalEta from the cubic Hermite interpolant of F_r and F_r′
+	// at the last two evaluations, a step h apart: it errs by about
+	// h² F⁗/(12F′), which the carry multiplies by δ; F⁗/F′ is at most
+	// about (|F″/F′| + 1/spacing)³ (also when F carries an exponential
+	// factor e^(λη)). The carry is used only when that error is below
+	// 1e-12 of Γ.
+	h := rl.prevEta - rl.evalEta
+	carryErr := math.Inf(1)
+	if !math.IsNaN(rl.prevFp) && math.Abs(h) > 1e-9*sp && math.Abs(h) < 0.1*sp {
+		F := wronsk(&rl.res)
+		dF := rl.prevF - F - Fp*h
+		dD := rl.prevFp - Fp
+		fpp = 2 * (3*dF/h - dD) / (h * Fp)
+		k := math.Abs(fpp) + 1/sp
+		carryErr = math.Abs(delta) * h * h * k * k * k
 	}
-	if delta != 0 && (math.IsNaN(fpp) || math.Abs(delta) > 1e-6*sp) {
+	if delta != 0 && !(carryErr <= 1e-12 && math.Abs(delta) <= 1e-6*sp) {
 		rl.res = c.eval(eta, m, rl.S)
 		rl.evalEta = eta
 		rl.prevFp = math.NaN()
 		delta = 0
 		Fp = wronskSlope(&rl.res)
 		fpp = math.NaN()
+	}
+	if delta == 0 {
+		carryErr = 0
 	}
 	L, R := &rl.res.L, &rl.res.R
 	v := rstate{u: dual{0, 0}, w: dual{1, 0}}
@@ -185,9 +196,8 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	out.lv.Gamma = gamma
 	// Rounding, the level's own error carried through d ln Γ/dη, the
 	// neglected third order, and the first-order carry over δ (its
-	// second-order remainder and the error of F_r″ over d, taken as
-	// |δ d| χ²).
-	carry := delta*delta*chi*chi + math.Abs(delta*d)*chi*chi
+	// second-order remainder, and the error of F_r″ over d).
+	carry := delta*delta*chi*chi + 2*carryErr
 	out.lv.GammaErr = gamma * (relRound + (math.Abs(chi1)+2*math.Abs(kappa2))*rl.err + 4*gc*gc + carry)
 	return "", nil
 }
