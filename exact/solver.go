@@ -147,14 +147,19 @@ const eps = 0x1p-52 // float64 machine epsilon, 2.22e-16
 // d ln Γ/dη, and the neglected order. A Γ below 1e-300 is reported as
 // Gamma = 0 with GammaErr = 1e-300, an upper bound on Γ.
 //
-// Measured accuracy: against an independent math/big solution of the same
-// model at 160 bits (the project's bigstack reference) on 1021 levels of
-// 20 stacks (symmetric wells v = 2…300, μ = 1…2; asymmetric, double and
-// stepped wells; f from −10 to 10; up to 10 levels; Γ from 1e-300 to
-// 0.3), the worst η_r error is 5.7e-14 (5.7e-16·max(1, |η_r|)) and the
-// worst relative Γ error 1.2e-10; Err and GammaErr never fall below the
-// true errors (no true error reaches 1e-12, where the rules measure
-// pessimism). The textbook even/odd conditions at f = 0 (50 wells,
+// Measured accuracy: against the independent 256-bit reference table
+// testdata/stack256.txt (math/big Taylor shooting, exact/internal/bigstack)
+// on the 1021 of its 1178 levels that this criterion confines (20 stacks:
+// symmetric wells v = 2…300, μ = 1…2; asymmetric, double and stepped
+// wells; f from −10 to 10; up to 10 levels; Γ from 1e-300 to 0.3), the
+// worst η_r error is 5.7e-14 (5.7e-16·max(1, |η_r|), at v = 300, f = 2,
+// n = 10) and the worst relative Γ error 1.2e-10 (Γ = 3.3e-7); Err and
+// GammaErr never fall below the true errors (no true error reaches 1e-12,
+// where the rules measure pessimism). The reference's own criterion stops
+// a little lower at the downhill interface (Airy argument 1 there rather
+// than 0) and, beyond a low uphill barrier, also counts the states the
+// field holds far outside the well, which join the continuum as f → 0 and
+// are not confined here. The textbook even/odd conditions at f = 0 (50 wells,
 // v = 0.3…1e5, μ = 0.5…3): worst error 5.9e-16·max(1, η). A brute-force
 // Runge–Kutta shooting at f > 0 agrees to 1e-15 in η_r (1e-11 for broad
 // levels) and 1e-7 relative in Γ, its own limits.
