@@ -159,10 +159,20 @@ const eps = 0x1p-52 // float64 machine epsilon, 2.22e-16
 // a little lower at the downhill interface (Airy argument 1 there rather
 // than 0) and, beyond a low uphill barrier, also counts the states the
 // field holds far outside the well, which join the continuum as f → 0 and
-// are not confined here. The textbook even/odd conditions at f = 0 (50 wells,
-// v = 0.3…1e5, μ = 0.5…3): worst error 5.9e-16·max(1, η). A brute-force
-// Runge–Kutta shooting at f > 0 agrees to 1e-15 in η_r (1e-11 for broad
-// levels) and 1e-7 relative in Γ, its own limits.
+// are not confined here. The textbook even/odd conditions at f = 0 (50
+// wells, v = 0.3…1e5, μ = 0.5…3): worst error 5.9e-16·max(1, η). A
+// brute-force Runge–Kutta shooting at f > 0 agrees to 1e-15 in η_r (1e-11
+// for broad levels) and 1e-7 relative in Γ, its own limits.
+//
+// Speed (BenchmarkStackLevels, minima of five runs on the shared build
+// machine, in runs where ten infinite-wall levels took 2.7 µs): the lowest
+// three levels of a finite well with their widths in 1.9 µs at f = 0,
+// 5.3 µs at f = 1 and 7.4–7.6 µs at f = 2–3 (narrow, Γ ≤ 2e-7; two or
+// three evaluations of the level equation per level), 19–25 µs where the
+// third is broad (Γ = 0.014–0.13, complex Newton); the same well clad in
+// thin layers (five layers) takes 1.4–2.2 times as long; a plain
+// finite-difference solve of the three levels to 1e-6 takes 21–36 ms.
+// Levels allocates nothing once dst has room.
 type Solver struct {
 	// Stack is the layer structure; the zero Stack is the well with
 	// infinitely high walls.
