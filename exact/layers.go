@@ -17,17 +17,21 @@ import (
 // A state is (φ, w) at one point, each with its derivative with respect to
 // η (a [dual]), scaled by e^lg so that growth through thick barriers
 // neither overflows nor underflows, and the number of zeros of φ passed so
-// far. Three kinds of step carry it across a layer:
+// far. Four kinds of step carry it across a layer:
 //
 //   - f = 0: the exact transfer matrix of cosh/sinh (v > η) or cos/sin
-//     (v < η), written with sinh(x)/x so that it is smooth through v = η.
-//   - f > 0, where the layer is classically allowed or its forbidden part
-//     is thin (ζ grows by less than 20 across it): the Taylor series of
-//     φ about the start of each step, whose coefficients obey
-//     (k+2)(k+1) c_(k+2) = λ c_k + π²μf c_(k−1) (DLMF 9.2.1 in these
-//     variables); steps are short enough (|h|·max(√|λ|, (π²μf)^(1/3)) ≤
-//     stepTheta) that a step holds at most one zero of φ and the series
-//     needs about 20 terms. At f → 0 this is the zero-field transfer.
+//     (v < η), written with sinh(x)/x so that it is smooth through v = η;
+//     across a barrier with κw > 1 in two-mode form (twoModeLayer).
+//   - f > 0 across an allowed stretch spanning a unit of z or more: the
+//     Airy amplitude–phase transfer (milne.go).
+//   - f > 0 elsewhere, where the forbidden part is thin (ζ grows by less
+//     than 20 across it), and in every stretch while a wavefunction is
+//     recorded: the Taylor series of φ about the start of each step,
+//     whose coefficients obey (k+2)(k+1) c_(k+2) = λ c_k + π²μf c_(k−1)
+//     (DLMF 9.2.1 in these variables); steps are short enough
+//     (|h|·max(√|λ|, (π²μf)^(1/3)) ≤ stepTheta) that a step holds at most
+//     one zero of φ and the series needs about 20 terms. At f → 0 this is
+//     the zero-field transfer.
 //   - f > 0 across a thick forbidden part (ζ grows by 20 or more): the
 //     growing Airy solution alone (the decaying one is below e^(−40) of
 //     it at the far end), from the log-derivatives of Ai and Bi at both
@@ -35,7 +39,8 @@ import (
 //
 // Zeros are counted by the sign of φ at the ends of each step (a step,
 // a forbidden part and a zero-field layer with kw < π hold at most one), or
-// from the exact phase kw in a longer zero-field layer.
+// from the exact phase (kw, or Δ of the Airy transfer) across a longer
+// allowed stretch.
 
 // stepTheta bounds |h|·scale of one Taylor step.
 const stepTheta = 1.25

@@ -350,9 +350,9 @@ func zeroValue(u, w, h, v, mu, eta float64) (float64, float64) {
 	return C*u + mu*S*w, lg
 }
 
-// Wavefunction returns the normalized wavefunction of level n at reduced
-// field f: for infinite walls a [*Wave], for a Stack a [*StackWave]; for
-// f < 0 the mirror image ([tiltwell.Mirror]) of the level at |f|.
+// stackWavefunction returns the [*StackWave] of level n at f, or for f < 0
+// the mirror image ([tiltwell.Mirror]) of the level of the mirrored stack
+// at |f|.
 func (s Solver) stackWavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	sl, c, err := s.solveOneCalc(f, n)
 	if err != nil {

@@ -305,7 +305,7 @@ func (c *calc) nth(n int, f float64) (stackLevel, error) {
 			return sl, nil
 		}
 	}
-	panic("unreachable")
+	return stackLevel{}, fmt.Errorf("exact: level %d: %w", n, tiltwell.ErrLevel)
 }
 
 // model returns a starting value for level n when the reference layer has
