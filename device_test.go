@@ -711,29 +711,60 @@ func FuzzDeviceLines(f *testing.F) {
 
 // BenchmarkDeviceLines times a bias sweep of e1–hh1 and e1–lh1 of the
 // demo GaAs well with the exact solver on one core (GOMAXPROCS 1 during
-// the benchmark): 10⁴ fields from 0 to 150 kV/cm. It reports ns/field.
+// the benchmark), fields evenly spaced from 0 to 150 kV/cm, and reports
+// ns/field. For the share of the solver, part=levels times only the
+// three level solves a field needs (electron, heavy and light hole
+// ground levels) and part=waves adds the three wavefunctions, as the
+// exact solver builds them; part=lines is the whole of Device.Lines.
 func BenchmarkDeviceLines(b *testing.B) {
-	d, err := tiltwell.NewDevice(tiltwell.DemoGaAsWell(), exactFor, []tiltwell.Transition{e1hh1, e1lh1})
+	ts := []tiltwell.Transition{e1hh1, e1lh1}
+	d, err := tiltwell.NewDevice(tiltwell.DemoGaAsWell(), exactFor, ts)
 	if err != nil {
 		b.Fatal(err)
 	}
+	r := d.Reduced()
 	for _, n := range []int{100, 10000} {
 		fields := make([]float64, n)
 		for i := range fields {
 			fields[i] = tiltwell.KVPerCM(150 * float64(i) / float64(n-1))
 		}
-		b.Run(fmt.Sprintf("cores=1/fields=%d", n), func(b *testing.B) {
-			defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
-			dst := make([]tiltwell.DeviceLine, 0, 2*n)
-			b.ReportAllocs()
-			runs := 0
-			for b.Loop() {
-				if dst, err = d.Lines(dst, fields); err != nil {
-					b.Fatal(err)
+		for _, part := range []string{"levels", "waves", "lines"} {
+			b.Run(fmt.Sprintf("cores=1/part=%s/fields=%d", part, n), func(b *testing.B) {
+				defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
+				dst := make([]tiltwell.DeviceLine, 0, len(ts)*n)
+				lv := make([]tiltwell.Level, 0, 1)
+				b.ReportAllocs()
+				runs := 0
+				for b.Loop() {
+					if part == "lines" {
+						if dst, err = d.Lines(dst, fields); err != nil {
+							b.Fatal(err)
+						}
+						runs++
+						continue
+					}
+					for _, F := range fields {
+						for _, c := range []tiltwell.Carrier{tiltwell.Electron, tiltwell.HeavyHole, tiltwell.LightHole} {
+							cw := r.Carriers[c]
+							f := cw.Well.Reduced(F)
+							if c != tiltwell.Electron {
+								f = -f
+							}
+							s := exact.Solver{Stack: cw.Stack}
+							if lv, err = s.Levels(lv, f, 1); err != nil {
+								b.Fatal(err)
+							}
+							if part == "waves" {
+								if _, err := s.Wavefunction(f, 1); err != nil {
+									b.Fatal(err)
+								}
+							}
+						}
+					}
+					runs++
 				}
-				runs++
-			}
-			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(runs*n), "ns/field")
-		})
+				b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(runs*n), "ns/field")
+			})
+		}
 	}
 }
