@@ -56,8 +56,8 @@ type DeviceLine struct {
 	Energy float64
 	// EnergyErr is the error of Energy in meV from the solvers' estimates
 	// of the two levels, Err_e E₁(e) + Err_h E₁(h). It does not include
-	// the uncertainty of the material parameters (band gaps and offsets
-	// are known to some tens of meV) or of the model.
+	// the uncertainty of the material parameters (band offsets are
+	// uncertain by some tens of meV; from memory) or of the model.
 	EnergyErr float64
 	// Wavelength is the vacuum wavelength hc/Energy in nm (see
 	// [Wavelength]).
@@ -75,11 +75,14 @@ type DeviceLine struct {
 	//	Overlap = ∫ φ_e(ξ) φ_h(ξ) dξ
 	//
 	// over the whole line (both wavefunctions reach into the barriers),
-	// in practice over the union of the two wavefunctions' supports
-	// (see [Spread]), outside which each holds less than 1e-16 of its
-	// weight. Both wavefunctions are positive at the first interface, so
-	// Overlap is positive for e1–hh1 at zero field; Overlap2 does not
-	// depend on the sign.
+	// in practice over the union of the two wavefunctions' supports (see
+	// [Spread]): outside its support a bound state holds less than
+	// 1e-16 of its weight, and beyond the downhill turning point, where
+	// the support of a quasi-bound level (F ≠ 0) ends, the wavefunction
+	// describes the escaped carrier rather than the level. Both
+	// wavefunctions are positive at the first interface, so Overlap is
+	// positive for e1–hh1 at zero field; Overlap2 does not depend on the
+	// sign.
 	Overlap float64
 	// Overlap2 is Overlap², to which the strength of the absorption line
 	// is proportional.
@@ -89,17 +92,19 @@ type DeviceLine struct {
 	// the solvers' wavefunctions.
 	OverlapErr float64
 	// ElectronEscape and HoleEscape are the escape times τ = ħ/(Γ E₁) in
-	// seconds of the electron and the hole from their levels (see
-	// [Well.EscapeTime]): +Inf for a level whose escape width Γ is 0, a
-	// bound state at zero field or a width below what the solver
-	// resolves.
+	// seconds of the electron and the hole from their levels, Γ the
+	// level's escape width and E₁ the carrier's energy unit (see
+	// [Well.EscapeTime]): +Inf for a level whose Γ is 0, a bound state at
+	// zero field or a width below what the solver resolves (the exact
+	// solver's 1e-300 E₁).
 	ElectronEscape, HoleEscape float64
 	// ElectronEscapeErr and HoleEscapeErr are the relative errors of the
 	// escape times, GammaErr/Gamma of the levels (exactly |τ − τ_true|/τ_true
 	// when GammaErr is the true error of Γ). They are 0 for a bound state
 	// (Γ = GammaErr = 0) and +Inf when Γ = 0 but the solver puts a
-	// nonzero estimate on it: the escape time is then at least
-	// ħ/(GammaErr E₁), beyond anything a device notices.
+	// nonzero estimate GammaErr on it: the escape time, reported +Inf, is
+	// then unresolved and may be as short as ħ/(GammaErr E₁) (with the
+	// exact solver, GammaErr = 1e-300 and that is beyond 1e280 s).
 	ElectronEscapeErr, HoleEscapeErr float64
 }
 
