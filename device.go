@@ -301,8 +301,8 @@ type deviceScratch struct {
 // the holes at −F/F₀(h), energies and wavefunctions alike. The fields are
 // computed in parallel, on at most runtime.GOMAXPROCS(0) goroutines; the
 // result does not depend on their number or timing. With capacity in dst,
-// Lines allocates nothing per field beyond what the solvers' Levels and
-// Wavefunction allocate (TestDeviceAllocs); the exact solver allocates
+// Lines allocates nothing in steady state beyond what the solvers' Levels
+// and Wavefunction allocate (TestDeviceAllocs); the exact solver allocates
 // about 11 times for each wavefunction, 33 times per field for e1–hh1 and
 // e1–lh1.
 //

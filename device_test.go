@@ -649,7 +649,7 @@ func (s sineSolver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error
 }
 
 // TestDeviceAllocs: with a solver that allocates nothing, a sweep
-// allocates a few times per call (its goroutines), not per field.
+// allocates nothing in steady state.
 func TestDeviceAllocs(t *testing.T) {
 	if raceEnabled {
 		t.Skip("allocation counts are not meaningful under the race detector")
@@ -670,9 +670,11 @@ func TestDeviceAllocs(t *testing.T) {
 	if o := dst[1].Overlap; math.Abs(o) > 1e-14 {
 		t.Errorf("sine e1–hh2 overlap %v, want 0", o)
 	}
-	allocs := testing.AllocsPerRun(20, func() { dst, _ = d.Lines(dst, fields) })
-	if limit := 4.0*float64(runtime.GOMAXPROCS(0)) + 4; allocs > limit {
-		t.Errorf("%v allocations for %d fields, want at most %v (none per field)", allocs, len(fields), limit)
+	// The goroutines come from the runtime's free list once warm: 0
+	// allocations per call were measured at GOMAXPROCS 1 to 8; one per
+	// call is allowed.
+	if allocs := testing.AllocsPerRun(20, func() { dst, _ = d.Lines(dst, fields) }); allocs > 1 {
+		t.Errorf("%v allocations for %d fields, want at most 1 (none per field)", allocs, len(fields))
 	}
 }
 
