@@ -62,6 +62,12 @@ type Solver struct {
 	// the connection correction (the distance to the connection rule's
 	// level) plus the connection rule's own Err.
 	Plain bool
+	// Stack is the layer structure. The zero Stack is the well with
+	// infinitely high walls; a single finite well (three layers, see
+	// [tiltwell.FiniteWell] and [tiltwell.AsymmetricWell]) is solved by
+	// the finite-well rules (see the package documentation). Other
+	// stacks give an error wrapping [errors.ErrUnsupported].
+	Stack tiltwell.Stack
 }
 
 var _ tiltwell.WaveSolver = Solver{}
@@ -99,6 +105,12 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 	dst = dst[:0]
 	if err := tiltwell.CheckArgs("wkb", f, k, MaxLevels, MaxField); err != nil {
 		return dst, err
+	}
+	if !s.Stack.Infinite() {
+		if err := checkStack(s.Stack); err != nil {
+			return dst, err
+		}
+		return s.finiteLevels(dst, f, k)
 	}
 	af, _ := tiltwell.Fold(f)
 	ea := airyEnergy(af)
