@@ -333,7 +333,6 @@ func (w *well) solve(n int, lo, hi, guess float64) (point, error) {
 	return point{}, fmt.Errorf("wkb: f = %g, n = %d: finite-well rule did not converge: %w", w.f, n, tiltwell.ErrNoConvergence)
 }
 
-
 // finiteLevels is [Solver.Levels] for a single finite well.
 func (s Solver) finiteLevels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
 	st, af, _ := s.Stack.Fold(f)
