@@ -340,6 +340,14 @@ func (s Solver) finiteLevels(dst []tiltwell.Level, f float64, k int) ([]tiltwell
 		return zeroFieldLevels(dst, st, f, k)
 	}
 	w := newWell(st, af)
+	dst, _, err := w.scanLevels(dst, f, k, s.Plain)
+	return dst, err
+}
+
+// scanLevels appends levels 1..k of w (at the unfolded field f, for the
+// errors) to dst[:0] and returns them with the root of the last one.
+func (w *well) scanLevels(dst []tiltwell.Level, f float64, k int, plain bool) ([]tiltwell.Level, point, error) {
+	dst = dst[:0]
 	sc := w.newScan()
 	var prev, prev2 point
 	for n := 1; n <= k; n++ {
@@ -355,22 +363,22 @@ func (s Solver) finiteLevels(dst []tiltwell.Level, f float64, k int) ([]tiltwell
 		}
 		p, why, err := sc.next(n, guess)
 		if err != nil {
-			return dst[:0], err
+			return dst[:0], point{}, err
 		}
 		lv := tiltwell.Level{}
 		if why == "" {
 			lv, why = w.finish(n, p)
 		}
 		if why != "" {
-			return dst, &tiltwell.ConfinedError{Method: "wkb", F: f, Asked: k, Confined: n - 1, Why: fmt.Sprintf("level %d: %s", n, why)}
+			return dst, prev, &tiltwell.ConfinedError{Method: "wkb", F: f, Asked: k, Confined: n - 1, Why: fmt.Sprintf("level %d: %s", n, why)}
 		}
-		if s.Plain {
+		if plain {
 			lv = w.plainLevel(lv, p)
 		}
 		dst = append(dst, lv)
 		prev2, prev = prev, p
 	}
-	return dst, nil
+	return dst, prev, nil
 }
 
 // scan finds the levels of the connection rule in increasing order.
@@ -410,19 +418,6 @@ func (sc *scan) next(n int, guess float64) (point, string, error) {
 	return p, "", nil
 }
 
-// levelAt solves level n alone: ψ is increasing, so the bracket from the
-// bottom of the well holds it.
-func (w *well) levelAt(n int) (point, string, error) {
-	sc := w.newScan()
-	if sc.psiHi < float64(n) {
-		return point{}, w.why(sc.byAction), nil
-	}
-	if w.eval(sc.lo).psi >= 1 {
-		return point{}, "below the well's bottom", nil
-	}
-	p, err := w.solve(n, sc.lo, sc.hi, math.NaN())
-	return p, "", err
-}
 
 func (w *well) why(byAction bool) string {
 	if byAction {

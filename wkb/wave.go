@@ -43,6 +43,12 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	if err := tiltwell.CheckArgs("wkb", f, n, MaxLevels, MaxField); err != nil {
 		return nil, err
 	}
+	if !s.Stack.Infinite() {
+		if err := checkStack(s.Stack); err != nil {
+			return nil, err
+		}
+		return s.finiteWavefunction(f, n)
+	}
 	af, mirrored := tiltwell.Fold(f)
 	if af < tinyField {
 		fn := float64(n)
