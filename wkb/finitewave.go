@@ -116,13 +116,15 @@ func newFiniteWave(w well, e float64, n int) *finiteWave {
 		fw.amp = -fw.amp
 	}
 	fw.phi0, fw.phi1 = fw.amp*r0, fw.amp*r1
-	fw.lo = -(w.vL - e) / f
+	fw.lo = -(w.vL-e)/f + fw.leftCut()
 	fw.hi = 1 + fw.tailLength()
 	return fw
 }
 
 // Support returns the interval over which φ is normalized: from the
-// downhill turning point to where the uphill tail holds less than 1e-17.
+// downhill turning point (or, for a narrow level, from where the tail
+// towards it holds less than 1e-17) to where the uphill tail holds less
+// than 1e-17.
 func (fw *finiteWave) Support() (lo, hi float64) { return fw.lo, fw.hi }
 
 // At returns φ(ξ) (0 for NaN ξ).
@@ -131,14 +133,12 @@ func (fw *finiteWave) At(xi float64) float64 {
 	case math.IsNaN(xi):
 		return 0
 	case xi < 0:
-		z := fw.zL + fw.sL*xi
-		return fw.phi0 * math.Exp(airyLnM(z)-fw.lnMzL)
+		return fw.phi0 * math.Exp(lnMRatio(fw.zL, fw.sL*xi, fw.lnMzL))
 	case xi > 1:
 		if fw.phi1 == 0 {
 			return 0
 		}
-		z := fw.zR + fw.sR*(xi-1)
-		return fw.phi1 * math.Exp(airyLnAi(z)-fw.lnAizR)
+		return fw.phi1 * math.Exp(lnAiRatio(fw.zR, fw.sR*(xi-1), fw.lnAizR))
 	}
 	return fw.amp * fw.raw(xi)
 }
@@ -226,6 +226,53 @@ func (fw *finiteWave) tailLength() float64 {
 	zh := z0 + 0.5*math.Log(q/1e-17)
 	z := math.Cbrt(1.5 * zh * 1.5 * zh)
 	return (z - fw.zR) / fw.sR
+}
+
+// leftCut returns how far inside the downhill turning point the support
+// may start: where the tail between them holds less than 1e-17, from
+// ∫₀^z M² dz′ ≈ M(z)²/(2√z); 0 if it holds more.
+func (fw *finiteWave) leftCut() float64 {
+	q := fw.phi0 * fw.phi0 / (2 * fw.sL * math.Sqrt(max(fw.zL, 0.1)))
+	zL := 2.0 / 3 * fw.zL * math.Sqrt(fw.zL)
+	zc := zL - 0.5*math.Log(max(q, 1e-300)/1e-17)
+	if !(zc > 0) {
+		return 0
+	}
+	return math.Cbrt(1.5*zc*1.5*zc) / fw.sL
+}
+
+// zetaDiff returns ζ(z + d) − ζ(z), ζ = (2/3) z^(3/2), for z, z + d ≥ 0,
+// in a form that does not cancel when d is small next to z.
+func zetaDiff(z, d float64) float64 {
+	a := z + d
+	ra, rz := math.Sqrt(a), math.Sqrt(z)
+	if ra+rz == 0 {
+		return 0
+	}
+	return 2.0 / 3 * d * (a + ra*rz + z) / (ra + rz)
+}
+
+// lnMRatio returns ln M(z + d) − ln M(z), given lnMz = ln M(z): past
+// airyHi from the scaled Bi, with the exponents' difference from
+// [zetaDiff].
+func lnMRatio(z, d, lnMz float64) float64 {
+	if z > airyHi && z+d > airyHi {
+		_, b0, _ := airyScaledPos(z)
+		_, b1, _ := airyScaledPos(z + d)
+		return math.Log(b1/b0) + zetaDiff(z, d)
+	}
+	return airyLnM(z+d) - lnMz
+}
+
+// lnAiRatio returns ln Ai(z + d) − ln Ai(z) for z, z + d ≥ 0, given
+// lnAiz = ln Ai(z), likewise.
+func lnAiRatio(z, d, lnAiz float64) float64 {
+	if z > airyHi && z+d > airyHi {
+		a0, _, _ := airyScaledPos(z)
+		a1, _, _ := airyScaledPos(z + d)
+		return math.Log(a1/a0) - zetaDiff(z, d)
+	}
+	return airyLnAi(z+d) - lnAiz
 }
 
 // airyLnM returns ln M(x), M² = Ai² + Bi² (DLMF 9.8.3).
