@@ -3,6 +3,7 @@ package tiltwell
 import (
 	"fmt"
 	"math"
+	"reflect"
 	"time"
 )
 
@@ -38,9 +39,9 @@ type Trial struct {
 // Stats is the cost of a candidate measured by [Choose] on this machine.
 type Stats struct {
 	// PerLevel is the wall-clock time per level: the time of the fastest
-	// of repeated passes of Levels calls over all the fields, divided by
-	// the number of levels in a pass. It is 0 if the candidate returned an
-	// error.
+	// of repeated passes of Levels calls over all the fields (after an
+	// untimed first pass), divided by the number of levels in a pass. It
+	// is 0 if the candidate returned an error.
 	PerLevel time.Duration
 	// Calls is the number of Levels calls that were timed, over all
 	// passes.
@@ -53,19 +54,32 @@ type Choice struct {
 	// candidate met the tolerance.
 	Name   string
 	Solver Solver
+	// WaveSolver is Solver as a [WaveSolver] when it is one (every method
+	// of this module is), ready for [Pair.Sweep]; nil otherwise.
+	WaveSolver WaveSolver
 	// Trials has one entry per candidate, in the order given.
 	Trials []Trial
 }
 
-// timeBudget is how long Choose keeps repeating a candidate's Levels calls
-// over the fields to time it: long enough that the timer resolution and a
-// single cold call do not dominate, short enough that choosing among a
-// handful of fast methods takes milliseconds.
-const timeBudget = 2 * time.Millisecond
+// MaxLevelRequest is the largest number of levels [Choose] accepts, and
+// the highest level number a [Transition] may name in [Pair.Sweep]. It
+// bounds the memory a request can ask for before any solver sees it; the
+// methods of this module support at most 1000 levels (the exact
+// package's MaxLevels).
+const MaxLevelRequest = 10000
 
-// slowPass is the duration of a first pass over the fields beyond which
-// Choose times that pass alone instead of repeating the calls.
-const slowPass = 50 * time.Millisecond
+// Timing. After one untimed pass over the fields, which collects the
+// error estimates and pays one-time costs (tables built on first use, cold
+// caches), Choose times one pass, then repeats batches of passes, each
+// batch long enough (minBatch) for the timer's resolution not to matter,
+// up to timedBatches batches or until timeBudget has been spent timing.
+// The fastest pass counts: other work on the machine only ever adds time,
+// so the minimum is the least disturbed measurement.
+const (
+	minBatch     = 10 * time.Microsecond
+	timedBatches = 5
+	timeBudget   = 2 * time.Millisecond
+)
 
 // Choose returns the cheapest candidate whose own error estimates meet the
 // tolerance: a candidate meets tol if, at every reduced field in fields,
@@ -74,22 +88,40 @@ const slowPass = 50 * time.Millisecond
 // time per level on this machine (see [Stats]); of two equally cheap
 // candidates the earlier one wins.
 //
+// For a physical well w (see [Well]), a tolerance of 0.1 meV is
+// w.FromMilliEV(0.1), and a field F in V/m is w.Reduced(F):
+//
+//	ch, err := tiltwell.Choose(cands, w.FromMilliEV(0.1), fields, 3)
+//
+// The chosen solver is ch.Solver, and ch.WaveSolver for [Pair.Sweep].
+//
 // Choose judges candidates by their own estimates, the [Level.Err] they
 // report; it has no reference to compare with. To test that a method's
 // estimates are honest, use the exact package's Check.
 //
 // Choose calls the candidates one after another, never concurrently, so
-// that the timings are not disturbed. To choose over a field range rather
-// than a list, sample it, for instance with gonum's floats.Span, and
-// include both ends.
+// that the timings are not disturbed. Every candidate makes one untimed
+// pass over the fields first, so a table a method builds on first use is
+// never counted as its cost. Beyond that pass, timing a candidate costs
+// about 60 µs when a pass over the fields is fast (five batches of 10 µs
+// and one pass), and one to six more passes, within 2 ms, when it is
+// slow: one call with second-order perturbation theory, WKB and the exact
+// solver on 5 fields and 3 levels takes 0.2–0.4 ms (BenchmarkChoose), the
+// time of about a thousand exact level solves. To choose over a field
+// range rather than a list, sample it, for instance with gonum's
+// floats.Span, and include both ends.
 //
 // Choose returns an error, and no choice, for an empty candidate list
-// or a nil Solver (wrapping [ErrNoSolver]), for tol that is not a
-// positive finite number ([ErrUnits]), for an empty field list or a NaN or
-// infinite field ([ErrField]), and for k < 1 ([ErrLevel]). If no candidate
-// meets the tolerance, Choose returns the Choice with every Trial filled
-// in, Name "" and Solver nil, and an error wrapping [ErrNoneMeets]. An
-// error from a candidate is recorded in its Trial, not returned.
+// or a nil Solver, including a nil pointer or func in the interface
+// (wrapping [ErrNoSolver]), for tol that is not a positive finite number
+// ([ErrUnits]), for an empty field list or a NaN or infinite field
+// ([ErrField]), and for k < 1 or k > [MaxLevelRequest] ([ErrLevel]). If
+// no candidate meets the tolerance, Choose returns the Choice with every
+// Trial filled in, Name "" and Solver nil, and an error wrapping
+// [ErrNoneMeets]. An error from a candidate is recorded in its Trial, not
+// returned; so is a candidate that breaks the [Solver] contract (too few
+// levels, or a NaN, infinite or negative value in a Level: [ErrLevel] or
+// [ErrNoConvergence]) or panics ([ErrPanic]).
 func Choose(candidates []Candidate, tol float64, fields []float64, k int) (Choice, error) {
 	if len(candidates) == 0 {
 		return Choice{}, fmt.Errorf("tiltwell: choose: %w", ErrNoSolver)
@@ -97,6 +129,9 @@ func Choose(candidates []Candidate, tol float64, fields []float64, k int) (Choic
 	for i, c := range candidates {
 		if c.Solver == nil {
 			return Choice{}, fmt.Errorf("tiltwell: choose: candidate %d (%q) has a nil Solver: %w", i, c.Name, ErrNoSolver)
+		}
+		if isNil(c.Solver) {
+			return Choice{}, fmt.Errorf("tiltwell: choose: candidate %d (%q) has a nil %T as its Solver: %w", i, c.Name, c.Solver, ErrNoSolver)
 		}
 	}
 	if !(tol > 0) || math.IsInf(tol, 0) {
@@ -110,8 +145,8 @@ func Choose(candidates []Candidate, tol float64, fields []float64, k int) (Choic
 			return Choice{}, fmt.Errorf("tiltwell: choose: f = %v: %w", f, ErrField)
 		}
 	}
-	if k < 1 {
-		return Choice{}, fmt.Errorf("tiltwell: choose: %d levels requested, need at least 1: %w", k, ErrLevel)
+	if k < 1 || k > MaxLevelRequest {
+		return Choice{}, fmt.Errorf("tiltwell: choose: %d levels requested, want 1 to %d: %w", k, MaxLevelRequest, ErrLevel)
 	}
 
 	ch := Choice{Trials: make([]Trial, len(candidates))}
@@ -129,22 +164,22 @@ func Choose(candidates []Candidate, tol float64, fields []float64, k int) (Choic
 	}
 	ch.Name = candidates[best].Name
 	ch.Solver = candidates[best].Solver
+	ch.WaveSolver, _ = ch.Solver.(WaveSolver)
 	return ch, nil
 }
 
 // try runs one candidate over the fields: one pass to collect its error
-// estimates, then timed passes until timeBudget has elapsed.
+// estimates, then the timed passes (see minBatch).
 func try(c Candidate, tol float64, fields []float64, k int, dst []Level) (tr Trial) {
-	// A candidate that panics (a bug in it, or a typed nil Solver) is
-	// recorded as failed, like one that returns an error.
+	// A candidate that panics is recorded as failed, like one that
+	// returns an error.
 	defer func() {
 		if r := recover(); r != nil {
-			tr = Trial{Name: c.Name, Err: fmt.Errorf("tiltwell: choose: candidate %q panicked: %v: %w", c.Name, r, ErrNoSolver)}
+			tr = Trial{Name: c.Name, Err: fmt.Errorf("tiltwell: choose: candidate %q panicked: %v: %w", c.Name, r, ErrPanic)}
 		}
 	}()
 	tr = Trial{Name: c.Name, Met: true}
 	worst := -1.0
-	start := time.Now()
 	for _, f := range fields {
 		var err error
 		dst, err = c.Solver.Levels(dst, f, k)
@@ -165,31 +200,49 @@ func try(c Candidate, tol float64, fields []float64, k int, dst []Level) (tr Tri
 			}
 		}
 	}
-	// The first pass pays one-time costs (tables built on first use, cold
-	// caches), so it is timed only when it was already slow enough for
-	// them not to matter. Otherwise passes are repeated for timeBudget and
-	// the fastest counts: other work on the machine only ever adds time,
-	// so the minimum is the least disturbed measurement.
-	fastest, calls := time.Since(start), len(fields)
-	if fastest < slowPass {
-		fastest, calls = time.Duration(math.MaxInt64), 0
-		for spent := time.Duration(0); calls == 0 || spent < timeBudget; {
-			t0 := time.Now()
+
+	pass := func(reps int) time.Duration {
+		t0 := time.Now()
+		for range reps {
 			for _, f := range fields {
 				dst, _ = c.Solver.Levels(dst, f, k)
 			}
-			d := time.Since(t0)
-			spent += d
-			fastest = min(fastest, d)
-			calls += len(fields)
 		}
+		return time.Since(t0)
+	}
+	fastest := pass(1)
+	spent, calls := fastest, len(fields)
+	reps := 1
+	if fastest < minBatch {
+		reps = int(minBatch/max(fastest, time.Nanosecond)) + 1
+	}
+	for range timedBatches {
+		if spent >= timeBudget {
+			break
+		}
+		d := pass(reps)
+		spent += d
+		calls += reps * len(fields)
+		fastest = min(fastest, d/time.Duration(reps))
 	}
 	tr.Stats = Stats{PerLevel: fastest / time.Duration(len(fields)*k), Calls: calls}
 	return tr
 }
 
+// isNil reports whether v, a non-nil interface value, holds a nil pointer
+// or func, on which calling a method panics.
+func isNil(v any) bool {
+	switch rv := reflect.ValueOf(v); rv.Kind() {
+	case reflect.Pointer, reflect.Func:
+		return rv.IsNil()
+	}
+	return false
+}
+
 // checkLevels reports a Levels result that breaks the Solver contract in a
-// way that would make its estimates meaningless.
+// way that would make its numbers meaningless: a wrong count or
+// numbering, or a value that is NaN, infinite or (for the error
+// estimates and the width) negative.
 func checkLevels(ls []Level, k int) error {
 	if len(ls) != k {
 		return fmt.Errorf("returned %d levels, want %d: %w", len(ls), k, ErrLevel)
@@ -198,8 +251,16 @@ func checkLevels(ls []Level, k int) error {
 		if l.N != i+1 {
 			return fmt.Errorf("level %d has N = %d: %w", i+1, l.N, ErrLevel)
 		}
-		if math.IsNaN(l.Energy) || math.IsNaN(l.Err) || l.Err < 0 {
-			return fmt.Errorf("level %d: energy %v, error estimate %v: %w", l.N, l.Energy, l.Err, ErrNoConvergence)
+		if math.IsNaN(l.Energy) || math.IsInf(l.Energy, 0) {
+			return fmt.Errorf("level %d: energy %v is not a finite number: %w", l.N, l.Energy, ErrNoConvergence)
+		}
+		for _, v := range []struct {
+			name string
+			x    float64
+		}{{"error estimate", l.Err}, {"escape width", l.Gamma}, {"escape width estimate", l.GammaErr}} {
+			if !(v.x >= 0) || math.IsInf(v.x, 1) {
+				return fmt.Errorf("level %d: %s %v is not a finite non-negative number: %w", l.N, v.name, v.x, ErrNoConvergence)
+			}
 		}
 	}
 	return nil

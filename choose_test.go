@@ -4,10 +4,15 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
+	"sync"
 	"testing"
 	"time"
 
 	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/perturb"
+	"github.com/tiltwell/tiltwell/wkb"
 )
 
 // flatSolver is a cheap test solver: η_n = n² at every field (the f = 0
@@ -205,6 +210,7 @@ func TestChooseBadInput(t *testing.T) {
 		{"f=-Inf", ok, 1e-3, []float64{math.Inf(-1)}, 1, tiltwell.ErrField},
 		{"k=0", ok, 1e-3, fields, 0, tiltwell.ErrLevel},
 		{"k=-2", ok, 1e-3, fields, -2, tiltwell.ErrLevel},
+		{"k=1e9", ok, 1e-3, fields, 1e9, tiltwell.ErrLevel},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			t.Parallel()
@@ -248,21 +254,170 @@ func (s *nilSolver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.L
 	return dst, nil
 }
 
-// TestChoosePanickingCandidate checks that a candidate that panics, or a
-// typed nil Solver, is recorded as failed instead of crashing Choose.
+// TestChoosePanickingCandidate checks that a candidate that panics is
+// recorded as failed with an error wrapping ErrPanic, instead of crashing
+// Choose.
 func TestChoosePanickingCandidate(t *testing.T) {
-	var typedNil *nilSolver
+	t.Parallel()
 	good := tiltwell.Candidate{Name: "good", Solver: flatSolver{err: 1e-9}}
-	ch, err := tiltwell.Choose([]tiltwell.Candidate{{Name: "panics", Solver: panicky{}}, {Name: "typed-nil", Solver: typedNil}, good}, 1e-6, []float64{1}, 2)
+	ch, err := tiltwell.Choose([]tiltwell.Candidate{{Name: "panics", Solver: panicky{}}, good}, 1e-6, []float64{1}, 2)
 	if err != nil {
 		t.Fatal(err)
 	}
 	if ch.Name != "good" {
 		t.Errorf("chose %q", ch.Name)
 	}
-	for _, tr := range ch.Trials[:2] {
-		if tr.Err == nil || tr.Met {
-			t.Errorf("%s: trial %+v, want a recorded failure", tr.Name, tr)
+	if tr := ch.Trials[0]; !errors.Is(tr.Err, tiltwell.ErrPanic) || !strings.Contains(tr.Err.Error(), "broken candidate") || tr.Met {
+		t.Errorf("%s: trial %+v, want a recorded failure wrapping ErrPanic", tr.Name, tr)
+	}
+}
+
+// TestChooseTypedNil: a nil pointer in the Solver interface is refused
+// like a nil Solver, before any call.
+func TestChooseTypedNil(t *testing.T) {
+	t.Parallel()
+	var typedNil *nilSolver
+	ch, err := tiltwell.Choose([]tiltwell.Candidate{cheap, {Name: "typed-nil", Solver: typedNil}}, 1e-6, []float64{1}, 2)
+	if !errors.Is(err, tiltwell.ErrNoSolver) || !strings.Contains(err.Error(), "typed-nil") {
+		t.Fatalf("error %v, want one wrapping ErrNoSolver naming the candidate", err)
+	}
+	if ch.Trials != nil {
+		t.Errorf("trials %+v with the error", ch.Trials)
+	}
+}
+
+// TestChooseHugeK: a level count beyond MaxLevelRequest is refused before
+// anything is allocated for it (k = 1e9 used to run out of memory, and
+// k = MaxInt to panic in makeslice).
+func TestChooseHugeK(t *testing.T) {
+	t.Parallel()
+	for _, k := range []int{tiltwell.MaxLevelRequest + 1, 1e9, math.MaxInt} {
+		if _, err := tiltwell.Choose([]tiltwell.Candidate{cheap}, 1e-2, []float64{0}, k); !errors.Is(err, tiltwell.ErrLevel) {
+			t.Errorf("k = %d: error %v, want one wrapping ErrLevel", k, err)
 		}
+	}
+	if _, err := tiltwell.Choose([]tiltwell.Candidate{cheap}, 1e-2, []float64{0}, tiltwell.MaxLevelRequest); err != nil {
+		t.Errorf("k = MaxLevelRequest: %v", err)
+	}
+}
+
+// valueSolver is flatSolver with one value of level 2 replaced by set.
+type valueSolver struct {
+	flatSolver
+	set func(*tiltwell.Level)
+}
+
+func (s valueSolver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	dst, err := s.flatSolver.Levels(dst, f, k)
+	if err == nil && k >= 2 {
+		s.set(&dst[1])
+	}
+	return dst, err
+}
+
+// TestChooseNonFinite: a candidate that returns a non-finite or negative
+// value is never chosen, and its Trial names the value.
+func TestChooseNonFinite(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		name string
+		set  func(*tiltwell.Level)
+		text string
+	}{
+		{"energy=+Inf", func(l *tiltwell.Level) { l.Energy = math.Inf(1) }, "energy +Inf"},
+		{"energy=NaN", func(l *tiltwell.Level) { l.Energy = math.NaN() }, "energy NaN"},
+		{"err=+Inf", func(l *tiltwell.Level) { l.Err = math.Inf(1) }, "error estimate +Inf"},
+		{"gamma=NaN", func(l *tiltwell.Level) { l.Gamma = math.NaN() }, "escape width NaN"},
+		{"gamma=-1", func(l *tiltwell.Level) { l.Gamma = -1 }, "escape width -1"},
+		{"gammaerr=+Inf", func(l *tiltwell.Level) { l.GammaErr = math.Inf(1) }, "escape width estimate +Inf"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			t.Parallel()
+			bad := tiltwell.Candidate{Name: "bad", Solver: valueSolver{flatSolver{err: 1e-9}, c.set}}
+			ch, err := tiltwell.Choose([]tiltwell.Candidate{bad, costly}, 1e-2, []float64{0, 1}, 3)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if ch.Name != "costly" {
+				t.Errorf("chose %q", ch.Name)
+			}
+			tr := ch.Trials[0]
+			if tr.Met || !errors.Is(tr.Err, tiltwell.ErrNoConvergence) || !strings.Contains(tr.Err.Error(), c.text) {
+				t.Errorf("trial %+v, want a failure wrapping ErrNoConvergence that says %q", tr, c.text)
+			}
+		})
+	}
+}
+
+// coldSolver is cheap, but its first call builds a table for 80 ms, as
+// a method with tables built on first use does.
+type coldSolver struct {
+	flatSolver
+	once *sync.Once
+}
+
+func (s coldSolver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	s.once.Do(func() { time.Sleep(80 * time.Millisecond) })
+	return s.flatSolver.Levels(dst, f, k)
+}
+
+// TestChooseWarmsUp: the one-time cost of a candidate's first call is not
+// counted as its cost. The cold candidate is cheap afterwards and must
+// beat the costly one (20 µs a call) whatever its first call cost.
+func TestChooseWarmsUp(t *testing.T) {
+	t.Parallel()
+	cold := tiltwell.Candidate{Name: "cold", Solver: coldSolver{flatSolver{err: 1e-3}, new(sync.Once)}}
+	ch, err := tiltwell.Choose([]tiltwell.Candidate{costly, cold}, 1e-2, []float64{0, 1, 2}, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ch.Name != "cold" {
+		t.Errorf("chose %q; trials %+v", ch.Name, ch.Trials)
+	}
+}
+
+// TestChooseWaveSolver: the Choice carries the chosen solver as a
+// WaveSolver when it is one, ready for Pair.Sweep.
+func TestChooseWaveSolver(t *testing.T) {
+	t.Parallel()
+	ch, err := tiltwell.Choose([]tiltwell.Candidate{{Name: "exact", Solver: exact.Solver{}}}, 1e-8, []float64{0, 1}, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ch.WaveSolver == nil {
+		t.Fatalf("no WaveSolver for exact.Solver")
+	}
+	if _, err := demoPair.Sweep(ch.WaveSolver, nil, []float64{1e7}, []tiltwell.Transition{{E: 1, H: 1}}); err != nil {
+		t.Error(err)
+	}
+	ch, err = tiltwell.Choose([]tiltwell.Candidate{cheap}, 1e-2, []float64{0, 1}, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ch.Solver == nil || ch.WaveSolver != nil {
+		t.Errorf("flatSolver has no wavefunctions: Solver %v, WaveSolver %v", ch.Solver, ch.WaveSolver)
+	}
+}
+
+// BenchmarkChoose times one Choose call among perturb2, wkb and exact over
+// 5 fields in [0, 1] and 3 levels: at tol=1e-3 all three meet the
+// tolerance and perturb2 wins; at tol=1e-8 only exact does. The ms per
+// call is the cost stated in Choose's documentation.
+func BenchmarkChoose(b *testing.B) {
+	cands := []tiltwell.Candidate{
+		{Name: "perturb2", Solver: perturb.Solver{Order: 2}},
+		{Name: "wkb", Solver: wkb.Solver{}},
+		{Name: "exact", Solver: exact.Solver{}},
+	}
+	fields := []float64{0, 0.25, 0.5, 0.75, 1}
+	for _, tol := range []float64{1e-3, 1e-8} {
+		b.Run(fmt.Sprintf("tol=%g/fields=5/k=3", tol), func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := tiltwell.Choose(cands, tol, fields, 3); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
 	}
 }

@@ -29,6 +29,12 @@ var (
 	// ErrNoneMeets reports that no candidate's own error estimates met the
 	// tolerance; [Choose] still returns the report of every candidate.
 	ErrNoneMeets = errors.New("tiltwell: no candidate meets the tolerance")
+	// ErrPanic reports a panic in code the caller supplied (a solver, its
+	// wavefunctions, or a potential it calls) that [Choose] or
+	// [Pair.Sweep] recovered and turned into an error. Only panics on the
+	// calling goroutines are recovered: a panic on a goroutine the
+	// supplied code starts itself still ends the program.
+	ErrPanic = errors.New("tiltwell: supplied code panicked")
 )
 
 // RangeError is returned for a finite field outside the range a method

@@ -50,7 +50,8 @@ func ExampleStructure_Reduce() {
 		log.Fatal(err)
 	}
 	fmt.Printf("field %.0f kV/cm, well gap %.4f eV at %.0f K\n", r.Field/1e5, r.Gap, r.Temperature)
-	for _, cw := range r.Carriers {
+	for _, c := range []tiltwell.Carrier{tiltwell.Electron, tiltwell.HeavyHole, tiltwell.LightHole} {
+		cw := r.Carriers[c]
 		b, _ := cw.Stack.Layer(0)
 		fmt.Printf("%-2v m = %.4f m₀  E₁ = %6.3f meV  barrier v = %6.3f E₁  μ = %.4f  f = %+.4f\n",
 			cw.Carrier, cw.Well.Mass, cw.E1*1e3, b.Edge, b.Mass, cw.F)

@@ -100,11 +100,12 @@ func DiodeField(builtIn, bias, intrinsic float64) (float64, error) {
 type Carrier int
 
 // The carriers. Programs should not rely on the numeric values, except
-// that they index [Reduced.Carriers].
+// that they index [Reduced.Carriers]. HeavyHole is the zero value, so that
+// the hole band of a [Transition] defaults to the heavy hole.
 const (
-	Electron Carrier = iota
-	HeavyHole
+	HeavyHole Carrier = iota
 	LightHole
+	Electron
 )
 
 // String returns "e", "hh" or "lh", the names used in transition labels
@@ -183,8 +184,8 @@ type Reduced struct {
 	Temperature, Field float64
 	// Gap is the Γ band gap of the reference well at Temperature, in eV.
 	Gap float64
-	// Carriers holds the electron, heavy hole and light hole, indexed by
-	// [Carrier].
+	// Carriers holds the heavy hole, light hole and electron, indexed by
+	// [Carrier]: Carriers[Electron] is the electron.
 	Carriers [3]CarrierWell
 }
 
@@ -299,7 +300,7 @@ func (s Structure) Reduce() (Reduced, error) {
 	r := Reduced{Temperature: T, Field: s.Field, Gap: wm.Gamma.At(T)}
 	L := s.Slabs[s.Well].Thickness
 	layers := make([]Layer, n)
-	for c := Electron; c <= LightHole; c++ {
+	for _, c := range [...]Carrier{Electron, HeavyHole, LightHole} {
 		mass := c.mass(wm)
 		w, err := NewWell(L, mass)
 		if err != nil {

@@ -18,6 +18,9 @@ const (
 	ReducedPlanck = Planck / (2 * math.Pi)
 	// ElementaryCharge is e in C. The constant is exact.
 	ElementaryCharge = float64(constant.ElementaryCharge)
+	// LightSpeed is the speed of light in vacuum c in m/s. The constant
+	// is exact.
+	LightSpeed = float64(constant.LightSpeedInVacuum)
 	// ElectronMass is the electron rest mass m₀ in kg, CODATA 2018
 	// 9.1093837015(28)e-31 kg (relative standard uncertainty 3.0e-10).
 	// gonum's unit/constant has no electron mass, so it is written here,
@@ -38,10 +41,30 @@ type Well struct {
 	Mass float64
 }
 
-// NewWell returns the Well of width (metres) and effective mass (units of the
-// electron mass m₀). It returns an error wrapping [ErrUnits] if either is not
-// a finite positive number, or if together they put E₁ or F₀ outside the
-// float64 range. The width is in metres: a 10 nm well is 10e-9.
+// Plausible scales of a well: [NewWell] refuses widths and masses outside
+// these ranges as typing mistakes. A monolayer of a III–V crystal is about
+// 0.28 nm and quantum confinement fades beyond a few hundred nm; the
+// band-edge effective masses of semiconductors lie between about 0.01 and
+// a few electron masses (common practice, no source).
+const (
+	// MinWellWidth and MaxWellWidth bound the width, in metres: 0.1 nm
+	// and 10 µm.
+	MinWellWidth, MaxWellWidth = 0.1e-9, 10e-6
+	// MinWellMass and MaxWellMass bound the effective mass, in units of
+	// m₀.
+	MinWellMass, MaxWellMass = 1e-3, 20
+)
+
+// NewWell returns the Well of width (metres) and effective mass (units of
+// the electron mass m₀). The width is in metres: a 10 nm well is 10e-9.
+//
+// NewWell returns an error wrapping [ErrUnits] if either is not a finite
+// positive number, if together they put E₁ or F₀ outside the normal
+// float64 range (subnormal, zero or infinite), or if the width lies
+// outside [MinWellWidth, MaxWellWidth] or the mass outside [MinWellMass, MaxWellMass].
+// The error names the value and, where one is likely, the mistake: a
+// width in nanometres (NewWell(10, …)), a mass in kilograms, the two
+// arguments swapped.
 func NewWell(width, mass float64) (Well, error) {
 	w := Well{Width: width, Mass: mass}
 	if err := w.validate(); err != nil {
@@ -52,18 +75,60 @@ func NewWell(width, mass float64) (Well, error) {
 
 func (w Well) validate() error {
 	if !(w.Width > 0) || math.IsInf(w.Width, 0) {
-		return fmt.Errorf("tiltwell: well width %v m: %w", w.Width, ErrUnits)
+		return fmt.Errorf("tiltwell: well width %v m is not a finite positive number: %w", w.Width, ErrUnits)
 	}
 	if !(w.Mass > 0) || math.IsInf(w.Mass, 0) {
-		return fmt.Errorf("tiltwell: effective mass %v m₀: %w", w.Mass, ErrUnits)
+		return fmt.Errorf("tiltwell: effective mass %v m₀ is not a finite positive number: %w", w.Mass, ErrUnits)
 	}
-	// Widths and masses far outside any device (a width of 1e-200 m, say)
-	// overflow or underflow the scales; refuse them rather than convert
-	// every field to 0 or ∞.
-	if e, f0 := w.EnergyUnit(), w.FieldUnit(); !(e > 0) || math.IsInf(e, 0) || !(f0 > 0) || math.IsInf(f0, 0) {
+	widthOK := w.Width >= MinWellWidth && w.Width <= MaxWellWidth
+	massOK := w.Mass >= MinWellMass && w.Mass <= MaxWellMass
+	if !widthOK && !massOK && w.Mass >= MinWellWidth && w.Mass <= MaxWellWidth && w.Width >= MinWellMass && w.Width <= MaxWellMass {
+		return fmt.Errorf("tiltwell: width %g m and mass %g m₀: swapped? NewWell takes the width (m) first, then the mass (m₀): %w", w.Width, w.Mass, ErrUnits)
+	}
+	if !widthOK {
+		return fmt.Errorf("tiltwell: width %g m outside %g–%g m%s: %w", w.Width, float64(MinWellWidth), float64(MaxWellWidth), widthHint(w.Width), ErrUnits)
+	}
+	if !massOK {
+		return fmt.Errorf("tiltwell: effective mass %g m₀ outside %g–%g m₀%s: %w", w.Mass, float64(MinWellMass), float64(MaxWellMass), massHint(w.Mass), ErrUnits)
+	}
+	// Within the plausible ranges the scales are normal numbers; the check
+	// stays so that no change of the ranges can let a subnormal or
+	// infinite scale through.
+	if e, f0 := w.EnergyUnit(), w.FieldUnit(); !normal(e) || !normal(f0) {
 		return fmt.Errorf("tiltwell: width %v m and mass %v m₀ give E₁ = %v J, F₀ = %v V/m: %w", w.Width, w.Mass, e, f0, ErrUnits)
 	}
 	return nil
+}
+
+// normal reports whether x is a positive normal float64.
+func normal(x float64) bool {
+	return x >= 0x1p-1022 && !math.IsInf(x, 0)
+}
+
+// widthHint guesses the unit a width outside the plausible range was
+// written in.
+func widthHint(width float64) string {
+	for _, u := range []struct {
+		name  string
+		scale float64
+		exp   string
+	}{{"nm", 1e-9, "e-9"}, {"Å", 1e-10, "e-10"}, {"µm", 1e-6, "e-6"}} {
+		if v := width * u.scale; v >= MinWellWidth && v <= MaxWellWidth {
+			return fmt.Sprintf(": did you mean %g %s = %g%s?", width, u.name, width, u.exp)
+		}
+	}
+	return ""
+}
+
+// massHint guesses the mistake behind a mass outside the plausible range.
+func massHint(mass float64) string {
+	if v := mass / ElectronMass; v >= MinWellMass && v <= MaxWellMass {
+		return fmt.Sprintf(": in kilograms? the mass is in units of m₀, %.4g here", v)
+	}
+	if v := mass / 1000; mass > MaxWellMass && v >= MinWellMass && v <= MaxWellMass {
+		return fmt.Sprintf(": did you mean %g m₀?", v)
+	}
+	return ""
 }
 
 // EnergyUnit returns E₁ = ħ²π²/(2 m* L²) in joules, the ground level of the
@@ -94,8 +159,51 @@ func (w Well) MilliEV(eta float64) float64 {
 	return eta * w.EnergyUnit() / ElementaryCharge * 1e3
 }
 
+// EV returns the energy η E₁ in eV for a reduced energy η.
+func (w Well) EV(eta float64) float64 {
+	return eta * w.EnergyUnit() / ElementaryCharge
+}
+
+// FromJoules returns the reduced energy η = E/E₁ of an energy E in
+// joules.
+func (w Well) FromJoules(e float64) float64 { return e / w.EnergyUnit() }
+
+// FromMilliEV returns the reduced energy η = E/E₁ of an energy E in meV:
+// a tolerance of 0.1 meV for [Choose] is w.FromMilliEV(0.1).
+func (w Well) FromMilliEV(mev float64) float64 {
+	return mev * 1e-3 * ElementaryCharge / w.EnergyUnit()
+}
+
+// FromEV returns the reduced energy η = E/E₁ of an energy E in eV.
+func (w Well) FromEV(ev float64) float64 {
+	return ev * ElementaryCharge / w.EnergyUnit()
+}
+
 // KVPerCM converts a field in kV/cm, the unit device papers use, to V/m.
 func KVPerCM(kv float64) float64 { return kv * 1e5 }
+
+// InKVPerCM converts a field in V/m to kV/cm.
+func InKVPerCM(field float64) float64 { return field / 1e5 }
+
+// VPerMicron converts a field in V/µm to V/m.
+func VPerMicron(v float64) float64 { return v * 1e6 }
+
+// InVPerMicron converts a field in V/m to V/µm.
+func InVPerMicron(field float64) float64 { return field / 1e6 }
+
+// hcOverE is hc/e in eV m, exact from the exact constants h, c and e
+// (CODATA 2018): 1.239841984…e-6.
+const hcOverE = Planck * LightSpeed / ElementaryCharge
+
+// Wavelength returns the vacuum wavelength λ = hc/E in nm of a photon of
+// energy E in eV: 1239.84198… nm for 1 eV. It returns +Inf for E = 0 and
+// a negative wavelength for a negative energy.
+func Wavelength(ev float64) float64 { return hcOverE * 1e9 / ev }
+
+// PhotonEnergy returns the energy E = hc/λ in eV of a photon of vacuum
+// wavelength λ in nm: 1.42 eV, the band gap of GaAs at room temperature,
+// is about 873 nm.
+func PhotonEnergy(nm float64) float64 { return hcOverE * 1e9 / nm }
 
 // EscapeTime returns the escape time τ = ħ/(Γ E₁) in seconds of a level
 // whose escape width is gamma = Γ in units of E₁ (see [Level.Gamma]): the

@@ -94,47 +94,72 @@ const (
 // parity) and Σ_(m>M) m⁻ᵖ ≤ M^(1−p)/(p − 1) bound the rest. T₁ is the
 // second-order energy correction, so ρ(u) is far closer to η_k than θ_k
 // is (its error is O(f²D)), and the lower end of the bracket is close to the
-// exact level: Err exceeds the true error θ_k − η_k by little where that
-// error is above rounding (the tests hold the ratio to at most 10 on the
-// grid they check). The plain Ritz vector (δ = 0, σ² ≤ ‖r‖² + …) and the
-// bounds of item 3 on η_k itself are tried too; the best proven lower bound
-// is used. Near the top of the basis (θ ≥ (N+1)²) only the latter remain
+// exact level: Err exceeds the true error θ_k − η_k by little (the tests
+// hold the ratio to at most 10 wherever the true error is above 1e-14).
+// The plain Ritz vector (δ = 0, σ² ≤ ‖r‖² + …) and the bounds of item 3
+// on η_k itself are tried too; the best proven lower bound is used. Near the top of the basis (θ ≥ (N+1)²) only the latter remain
 // and the bracket can be wide, but it holds.
 //
-// Where the proven bracket is more than 3× wider than an estimated one, the
-// estimate is returned instead and that level is marked
+// Where the proven bracket is more than 1.5× wider than an estimated one,
+// the estimate is returned instead and that level is marked
 // [tiltwell.Estimate]. The estimate uses, where the proven β is too low for
 // β > ρ, the Ritz-gap guess β = θ_k + (θ_(k+1) − θ_k)/2 (accepted only if
 // σ ≤ (β − ρ)/8, where the bound hardly depends on β), and at most twice
 // the second-order correction, θ_k − ρ(u). This happens for a few levels
-// near the top of a small basis at strong fields (391 of the 4910 cells of
+// near the top of a small basis at strong fields (414 of the 4910 cells of
 // the test grid f ≤ 1000, N ≤ 160, every level; none misses the exact
-// value). On that grid the worst Err/true-error ratio is 9.97, at the top
-// level of the basis; below the top two levels it is under 5, and for the
-// low levels 1.0–1.8. Beyond |f| = 1000 the estimate is offered only where
+// value). On that grid, wherever the true error is above 1e-14, the worst
+// Err/true-error ratio is 6.6, at the top level of the basis; below the top
+// two levels it is under 3.5, and for the three lowest levels (N ≥ 8)
+// 1.0–1.5. (With a slack of 3 instead of 1.5, proven brackets at the top of
+// small bases reached 11.4× the true error, e.g. N = 20, n = 19,
+// f = 231.) Beyond |f| = 1000 the estimate is offered only where
 // the correction θ_k − ρ(u) is below 2% of the gap to the next Ritz value:
 // at stronger fields the top of a small basis is far from converged and the
 // plain estimate undershot the true error by up to 6× (649 of 17010 cells
-// for f = 1e3…1e5, N = 10…320); with the test 7 cells miss (0.04%), and the
-// proven brackets used instead are honest but can be several hundred times
-// wider than the true error there (TestStrongFieldEstimates logs the
-// count). Where the true error is below the rounding floor
-// (2γ_(2N+2)(Σn²c_n² + 2|f|/3) + 4u|θ|, below), Err is that floor: at
-// N = 160, f = 10 the ground level has Err = 6e-13 for a true error of
-// 3e-15.
+// for f = 1e3…1e5, N = 10…320); with the test 8 of the 5830 cells of
+// TestStrongFieldEstimates miss (0.14%), and the proven brackets used
+// instead are honest but can be several hundred times wider than the true
+// error there (the test logs the count).
 //
 // Fields below 1e-100 are treated as zero field (the tilt's matrix elements
 // would underflow), with |f|/2 added to Err: by min–max
 // |η_n(f) − η_n(0)| ≤ |f|/2, so the bracket stays rigorous.
 //
-// Rounding is accounted for with explicit allowances, not proven to the
-// last bit: the inner products and sums carry Higham's γ_n = nu/(1 − nu)
-// bounds (Higham §3.1, §3.5) with |X| row sums at most 2/3, and the Ritz
-// value itself (HUM for computed, not exact, Ritz vectors) an allowance of
-// 2γ_(2N+2)(Σn²c_n² + 2|f|/3) + 4u|θ|, a floor on Err. The bracket is
-// therefore rigorous "up to
+// # Rounding
+//
+// The reported Energy is the Rayleigh quotient ρ(c) of the computed Ritz
+// vector c, formed in double-double (error-free products and sums, T. J.
+// Dekker, Numer. Math. 18, 224 (1971); the pattern of T. Ogita, S. M. Rump,
+// S. Oishi, SIAM J. Sci. Comput. 26, 1955 (2005)), with the tilt's matrix
+// elements as −f·(8/π²)·mn/(m² − n²)², the integer ratio and 8/π² in
+// double-double too: the pair θ_dd = θ + t_l is ρ(c) to a proven
+// (2(N+1)² + 8)u²·(2/3)|f| + O(Nu²|θ|), far below one unit in the last
+// place, and θ is its rounding. Every width is then measured from θ_dd
+// (rounding relative to the width, not to θ), and Err is the distance from
+// θ to the far end of [θ_dd − width, θ_dd + up], where up (η_k above
+// θ_dd: the non-orthogonality of c to the lower Ritz vectors, a residual
+// squared over the gap) is of the same tiny size. So where the truncation
+// error has vanished Err is |t_l|, at most half a unit in the last place
+// of θ, plus the bounds of the rest: 4e-15 for the ground level at N = 160,
+// f = 10 (true error 4.3e-15), 1e-26 at f = 0, where θ_k = k² exactly.
+// Before, Err had a floor of 2γ_(2N+2)(Σn²c_n² + 2|f|/3) + 4u|θ|, the
+// worst case of a float64 inner product, up to 641× the true error
+// (N = 160, f = 1, n = 45) and 83× for the automatic size and k = 12 at
+// f = 0.0017…0.002, n = 11; now at most 2.4× on 300 fields from 1e-4 to
+// 1e3, where the true error is one unit in the last place, the exact
+// reference's own rounding. The double-double rows cost time: solving
+// all N levels takes about 1.35× as long (N = 20…80, f = 10), 5 of 40
+// levels 1.1×. With a potential the rows are formed the same way, but the
+// moments V_mn carry their own rounding and quadrature error, so the
+// bound there is the float64 one, γ_(2N+2)·sup|V|. The other sums
+// (residuals, out-of-basis tails) carry Higham's γ_n = nu/(1 − nu) bounds (N. J. Higham, Accuracy and Stability of
+// Numerical Algorithms, 2nd ed., §3.1, §3.5) with |X| row sums at most
+// 2/3; they enter the bracket squared or through the residual, where
+// their size does not matter. The bracket is rigorous "up to
 // floating-point rounding of the bound itself", as [tiltwell.Rigorous]
-// says.
+// says: the eigenvectors themselves need no accuracy, since every bound
+// is a bound for whatever vector c the eigensolver returned.
 //
 // # With a potential (Estimate)
 //
@@ -161,7 +186,8 @@ const (
 //
 // Special cases are:
 //
-//	f = 0, no potential: θ_k = k² exactly and Err is the rounding allowance
+//	f = 0, no potential: θ_k = k² exactly and Err is the rounding bound
+//	    (1e-26 to 1e-24 for N = 160)
 //	f < 0, no potential: the levels of |f| (tiltwell.Fold); wavefunctions
 //	    mirrored (tiltwell.Mirror)
 //	f < 0 with a potential: solved directly, no mirror symmetry
@@ -310,10 +336,12 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 // wave is Σ c_m √2 sin(mπξ).
 type wave struct{ c []float64 }
 
-// At returns φ(ξ), 0 outside [0, 1]. sin(mπξ) comes from rotating
-// (cos πξ, sin πξ) m times, whose rounding grows only linearly in m.
+// At returns φ(ξ), 0 outside (0, 1) and exactly 0 on the walls, where
+// every sin(mπξ) vanishes but its float64 value (sin(π) = 1.2e-16) would
+// not. sin(mπξ) comes from rotating (cos πξ, sin πξ) m times, whose
+// rounding grows only linearly in m.
 func (w wave) At(xi float64) float64 {
-	if !(xi >= 0 && xi <= 1) {
+	if !(xi > 0 && xi < 1) {
 		return 0
 	}
 	s1, c1 := math.Sincos(math.Pi * xi)

@@ -22,7 +22,8 @@ func gamma(n int) float64 {
 }
 
 // dipole returns ⟨m|ξ − ½|n⟩ = −8mn/(π²(m² − n²)²) for m + n odd and 0
-// otherwise (m ≠ n; the diagonal is 0 too). Check-values §3.
+// otherwise (m ≠ n; the diagonal is 0 too), in the basis √2 sin(mπξ) (by
+// integration by parts; common practice, no source).
 func dipole(m, n int) float64 {
 	if (m+n)&1 == 0 {
 		return 0
@@ -33,8 +34,12 @@ func dipole(m, n int) float64 {
 }
 
 // rigorousSlack is how much wider than the estimated bracket a proven
-// bracket may be and still be reported (as Rigorous) instead of it.
-const rigorousSlack = 3
+// bracket may be and still be reported (as Rigorous) instead of it. The
+// estimate is at most 5.5× the true error (measured over f = 0.1…1e4,
+// N = 2…160, every level), so a proven bracket within 1.5× of it is at
+// most 8× the true error (7.9 measured); with 3 it reached 11.4× at the top
+// of small bases at strong fields (N = 20, n = 19, f = 231).
+const rigorousSlack = 1.5
 
 // trustFraction bounds the out-of-basis correction θ − ρ(u), as a fraction
 // of the gap to the next Ritz value, below which the estimated bracket may
@@ -93,21 +98,73 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 	}
 
 	// hc = W C, W the off-diagonal part of H on rows m = 1..M, columns
-	// n = 1..N, and C the first kk eigenvectors.
-	hc := w.hc[:M*kk]
+	// n = 1..N, and C the first kk eigenvectors. Inside the basis
+	// (m ≤ N) the rows are formed in double-double, hc + hcLo, for the
+	// Rayleigh quotients: the tilt as −f·(8/π²)·Σ_n R_mn c_n with
+	// R_mn = mn/(m² − n²)² and 8/π² in double-double (see ratio), the
+	// potential as Σ_n V_mn c_n. Outside, in float64, for the residual.
+	hc, hcLo := w.hc[:M*kk], w.hcLo[:N*kk]
 	clear(hc)
-	for m := 1; m <= M; m++ {
-		row := hc[(m-1)*kk : m*kk]
-		n0 := 1
-		if !pot {
-			n0 = 1 + m&1 // only m + n odd couple
+	clear(hcLo)
+	gh, gl := twoProd(-f, eightPiSqHi) // −f·8/π² = gh + gl
+	gl -= f * eightPiSqLo
+	var vh, vl []float64
+	if pot {
+		w.vrow = grow(w.vrow, 2*kk)
+		vh, vl = w.vrow[:kk], w.vrow[kk:2*kk]
+	}
+	for m := 1; m <= N; m++ {
+		row, lo := hc[(m-1)*kk:m*kk], hcLo[(m-1)*kk:m*kk]
+		if f != 0 {
+			for n := 1 + m&1; n <= N; n += 2 { // only m + n odd couple
+				rh, rl := ratio(m, n)
+				c := a[(n-1)*N : (n-1)*N+kk]
+				row, lo := row[:len(c)], lo[:len(c)]
+				for j, cj := range c {
+					p := rh * cj
+					s := row[j] + p
+					bb := s - row[j]
+					// twoProd's and twoSum's error terms, inlined.
+					lo[j] += ((row[j] - (s - bb)) + (p - bb)) + math.FMA(rh, cj, -p) + rl*cj
+					row[j] = s
+				}
+			}
+			for j := range row {
+				p, e := twoProd(gh, row[j])
+				row[j], lo[j] = twoSum(p, e+gh*lo[j]+gl*row[j])
+			}
 		}
-		step := 2
 		if pot {
-			step = 1
+			clear(vh)
+			clear(vl)
+			for n := 1; n <= N; n++ {
+				d := m - n
+				if d < 0 {
+					d = -d
+				}
+				v := mom[d] - mom[m+n] // V_mn, and V_mm on the diagonal
+				c := a[(n-1)*N : (n-1)*N+kk]
+				for j, cj := range c {
+					p, e := twoProd(v, cj)
+					s, t := twoSum(vh[j], p)
+					vh[j] = s
+					vl[j] += t + e
+				}
+			}
+			for j := range row {
+				s, t := twoSum(row[j], vh[j])
+				row[j], lo[j] = twoSum(s, t+lo[j]+vl[j])
+			}
+		}
+	}
+	for m := N + 1; m <= M; m++ {
+		row := hc[(m-1)*kk : m*kk]
+		n0, step := 1+m&1, 2 // only m + n odd couple
+		if pot {
+			n0, step = 1, 1
 		}
 		for n := n0; n <= N; n += step {
-			wmn := elem(m, n) // for n = m, V_mm (the kinetic m² is added later)
+			wmn := elem(m, n)
 			if wmn == 0 {
 				continue
 			}
@@ -130,33 +187,60 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 	ktail := eightP * af * 16 / 9
 	ktail *= ktail
 	gN, gM := gamma(2*N+2), gamma(M+2)
+	// Error of the double-double rows inside the basis, per row m: for
+	// the tilt at most rowRel·|f|·Σ_n |X_mn c_n| (u² from R_mn, 8/π² and
+	// the product with the field, and the rounding of the low parts,
+	// γ_(2N)(N + 1)u ≤ 2(N + 1)²u²), summing over m with |c|ᵀ|X||c| ≤
+	// (2/3)cᵀc to rowRel·wTilt·cᵀc; for a potential (an estimate, not a
+	// proof) γ_(2N+2)·sup|V| per unit of ‖c‖, as in plain float64, since the
+	// moments V_mn carry their own rounding.
+	rowRel := (2*float64(N+1)*float64(N+1) + 8) * unit * unit * (1 + gN)
+	rowErr := rowRel * af * 2 / 3
+	if pot {
+		rowErr += gN * vabs
+	}
 
 	for j := range kk {
-		var cc, kin, q, ae, ao, en2 float64
+		var cc, q dd
+		var ae, ao, en2, eb2, small float64
 		for i := range N {
 			c := a[i*N+j]
-			n := float64(i + 1)
-			cc += c * c
-			kin += n * n * c * c
-			q += c * hc[i*kk+j]
+			nn := float64((i + 1) * (i + 1))
+			cc.addProd(c, c)
+			kc, ke := twoProd(nn, c) // n²c = kc + ke exactly
+			q.addProd(kc, c)
+			q.addSmall(ke * c)
+			q.addProd(c, hc[i*kk+j])
+			q.addSmall(c * hcLo[i*kk+j])
+			small += math.Abs(ke*c) + math.Abs(c*hcLo[i*kk+j]) // rounded by u each
 			if (i+1)&1 == 0 {
-				ae += n * math.Abs(c)
+				ae += float64(i+1) * math.Abs(c)
 			} else {
-				ao += n * math.Abs(c)
+				ao += float64(i+1) * math.Abs(c)
 			}
 		}
-		q += kin
-		theta := q / cc
+		qh, ql, qErr := q.value()
+		ch, cl, cErr := cc.value()
+		th, tl := ddDiv(qh, ql, ch, cl)
+		qErr += unit*small + rowErr*ch*(1+8*unit)
+		cLow := ch - cErr - 2*unit*ch // a lower bound on cᵀc
+		// |θ_dd − ρ(c)|, ρ(c) = cᵀHc/cᵀc in exact arithmetic for the
+		// computed vector c: the errors of q and cᵀc, and the division.
+		aP := (qErr+math.Abs(th)*cErr)/cLow*(1+8*unit) + 32*unit*unit*math.Abs(th)
+		// In-basis residual ε = (H − θ)c at θ = th, and a bound on its
+		// rounding: two fused roundings per component, relative to the
+		// terms n²|c|, |hc| and |θ c|, and the rows' errors.
 		for i := range N {
 			c := a[i*N+j]
-			n := float64(i + 1)
-			e := n*n*c + hc[i*kk+j] - theta*c
+			nn := float64((i + 1) * (i + 1))
+			e := math.FMA(-th, c, math.FMA(nn, c, hc[i*kk+j])) + hcLo[i*kk+j]
 			en2 += e * e
+			b := nn*math.Abs(c) + math.Abs(hc[i*kk+j]) + math.Abs(th*c)
+			eb2 += b * b
 		}
-		sc := math.Sqrt(cc)
-		eq := gN*(kin+wabs*cc) + 2*unit*math.Abs(q)                       // |fl(ψᵀHψ) − ψᵀHψ| and θ's division
-		eps := math.Sqrt(en2) + gN*(float64(N*N)+wabs+math.Abs(theta))*sc // ‖ε‖
-		er := gN * wabs * sc                                              // ‖r − fl(r)‖ outside the basis
+		sc := math.Sqrt(ch + cErr + 2*unit*ch)
+		eps := math.Sqrt(en2)*(1+gN) + 3*unit*math.Sqrt(eb2)*(1+gN) + rowErr*sc*(1+4*unit)
+		er := gamma(2*N+8) * wabs * sc // ‖r − fl(r)‖ outside the basis: the sums and the elements f·X_mn
 
 		var r2, t1, t1abs, d, last float64
 		improved := true
@@ -167,7 +251,7 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 			if m > M-4 {
 				last += rr / 4
 			}
-			dm := float64(m)*float64(m) - theta
+			dm := float64(m)*float64(m) - th
 			if dm <= 0 {
 				improved = false
 				continue
@@ -179,8 +263,8 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 		// Tails beyond M: Σ_(m>M) r_m² (m² − θ)^(−p) with r_m² ≤ K A² m⁻⁶.
 		amax := max(ae, ao) * (1 + gamma(N))
 		shrink := 1.0 // (m² − θ) ≥ m²(1 − θ/M²) for m > M
-		if theta > 0 {
-			shrink = 1 - theta/(fm*fm)
+		if th > 0 {
+			shrink = 1 - th/(fm*fm)
 		}
 		tail := func(p int) float64 {
 			q := float64(5 + 2*p)
@@ -197,24 +281,37 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 			return t
 		}
 		r2 = (r2 + tail(0)) * (1 + gM)
-		lv := level{theta: theta}
-		lv.up = 2 * eq / cc
-		lv.rhoLoP = theta - eq/cc
-		lv.rhoHiP = theta + eq/cc
+		lv := level{theta: th, lo: tl}
+		// η_k ≤ θ_k (HUM) ≤ ρ(c) + Σ_(i<k) |⟨c, v_i⟩|²(θ_k − θ_i)/cᵀc,
+		// with |⟨c, v_i⟩| ≤ ‖(A − ρ)c‖/|θ_i − ρ|: the part of c along the
+		// lower Ritz vectors, a rounding-size term, bounded with the
+		// computed gap to the Ritz value below.
+		lv.up = aP
+		if j > 0 {
+			if gb := th - w.eig[j-1]; gb > 0 {
+				lv.up += float64(j) * eps * eps / (cLow * gb / 2)
+			} else {
+				lv.up = math.Inf(1)
+			}
+		}
+		lv.offLoP, lv.offHiP = -aP, aP
 		sp := eps + er + math.Sqrt(r2)
-		lv.sig2P = sp * sp / cc
+		lv.sig2P = sp * sp / cLow * (1 + 4*unit)
 		if improved && shrink > 0 {
 			t1hi := (t1 + tail(1)) * (1 + gM)
 			t1lo := t1 - gM*t1abs
 			dhi := (d + tail(2)) * (1 + gM)
 			sd := math.Sqrt(dhi)
-			lo := -(eq + t1hi + hw*dhi + 2*sd*er)
-			hi := eq - t1lo + hw*dhi + 2*sd*er
+			// ρ(u) − θ_dd = [cᵀc(ρ(c) − θ_dd) − t_l·D − T₁ + f⟨δ|ξ − ½|δ⟩]/(cᵀc + D),
+			// t_l = θ_dd − θ.
+			common := aP*ch*(1+4*unit) + math.Abs(tl)*dhi + hw*dhi + 2*sd*er
+			lo := -(common + t1hi)
+			hi := common - t1lo
 			lv.improved = true
-			lv.rhoLoU = theta + lo/cc
-			lv.rhoHiU = theta + max(hi, 0)/cc
+			lv.offLoU = lo / cLow * (1 + 4*unit)
+			lv.offHiU = max(hi, 0) / cLow * (1 + 4*unit)
 			su := eps + er + hw*sd
-			lv.sig2U = su * su / cc
+			lv.sig2U = su * su / cLow * (1 + 4*unit)
 		}
 		w.lv[j] = lv
 	}
@@ -223,14 +320,9 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 	// gap partner β of level j. betaR chains proven bounds only; betaE
 	// also accepts the Ritz-gap guess β = ρ + (θ_(j+1) − θ_j)/2 where the
 	// proven β is too low for the Kato–Temple hypothesis β > ρ.
-	// ρ − σ²/(β − ρ) is concave in ρ, so over ρ ∈ [ρlo, ρhi] its
-	// minimum is at an end.
-	temple := func(lo, rhoLo, rhoHi, sig2, beta float64) float64 {
-		if beta > rhoHi {
-			lo = max(lo, min(rhoLo-sig2/(beta-rhoLo), rhoHi-sig2/(beta-rhoHi)))
-		}
-		return lo
-	}
+	// Everything is measured from θ_dd = θ + t_l, the Rayleigh quotient in
+	// double-double: a candidate lower bound is stored as its width
+	// θ_dd − bound, so that rounding is relative to the width, not to θ.
 	betaR := floor.Level(f, kk+1) + vmin
 	betaE := betaR
 	for j := kk - 1; j >= 0; j-- {
@@ -244,54 +336,90 @@ func (s Solver) solveN(w *work, f float64, N, k int) error {
 		default:
 			next = lv.theta + 3
 		}
-		crudeLo := floor.Level(f, j+1) + vmin
-		loR := temple(crudeLo, lv.rhoLoP, lv.rhoHiP, lv.sig2P, betaR)
+		wR := lv.width(floor.Level(f, j+1) + vmin)
+		wR = lv.temple(wR, lv.offLoP, lv.offHiP, lv.sig2P, lv.gap(betaR))
 		if lv.improved {
-			loR = temple(loR, lv.rhoLoU, lv.rhoHiU, lv.sig2U, betaR)
+			wR = lv.temple(wR, lv.offLoU, lv.offHiU, lv.sig2U, lv.gap(betaR))
 		}
-		bE := betaE
-		if bE <= max(lv.rhoHiP, lv.rhoHiU) {
-			bE = max(bE, lv.theta+(next-lv.theta)/2)
+		gE := lv.gap(betaE)
+		if gE <= max(lv.offHiP, lv.offHiU) {
+			gE = max(gE, lv.gap(lv.theta+(next-lv.theta)/2))
 		}
 		// A guessed β is used only where the bound hardly depends on it:
 		// σ ≤ (β − ρ)/8.
-		guessed := bE != betaE
-		estimate := func(lo, rhoLo, rhoHi, sig2 float64) float64 {
-			if guessed && 64*sig2 > (bE-rhoHi)*(bE-rhoHi) {
-				return lo
+		guessed := gE != lv.gap(betaE)
+		estimate := func(wd, oLo, oHi, sig2 float64) float64 {
+			if guessed && 64*sig2 > (gE-oHi)*(gE-oHi) {
+				return wd
 			}
-			return temple(lo, rhoLo, rhoHi, sig2, bE)
+			return lv.temple(wd, oLo, oHi, sig2, gE)
 		}
-		loE := estimate(loR, lv.rhoLoP, lv.rhoHiP, lv.sig2P)
+		wE := estimate(wR, lv.offLoP, lv.offHiP, lv.sig2P)
 		if lv.improved {
-			loE = estimate(loE, lv.rhoLoU, lv.rhoHiU, lv.sig2U)
-		}
-		if lv.improved {
+			wE = estimate(wE, lv.offLoU, lv.offHiU, lv.sig2U)
 			// Where the Kato–Temple bracket is loose (the top of the basis
 			// at strong fields, where σ² is not small against the gap) or
 			// its hypothesis cannot be met, twice the second-order
 			// correction θ − ρ(u) is the better estimate.
-			if pt := lv.theta - 2*(lv.theta-lv.rhoLoU); pt > loE {
-				loE = pt
-			}
+			wE = min(wE, -2*lv.offLoU)
 		}
-		eR := max(lv.theta-loR, 0)*(1+4*unit) + 4*unit*math.Abs(lv.theta)
-		eE := max(lv.theta-loE, 0)*(1+4*unit) + 4*unit*math.Abs(lv.theta)
-		eR, eE = max(eR, lv.up), max(eE, lv.up)
+		eR, eE := lv.errBar(wR), lv.errBar(wE)
 		w.theta[j] = lv.theta
 		// The estimate is trusted only while the out-of-basis correction
 		// is small against the gap to the next Ritz value; at strong
 		// fields the top of a small basis fails that, and the estimate
 		// there undershot the true error by up to 6×.
-		trust := lv.improved && (math.Abs(f) <= estimateTested || lv.theta-lv.rhoLoU <= trustFraction*(next-lv.theta))
+		trust := lv.improved && (math.Abs(f) <= estimateTested || -lv.offLoU <= trustFraction*(next-lv.theta))
 		if !pot && (eR <= rigorousSlack*eE || !trust) {
 			w.err[j], w.bound[j] = eR, tiltwell.Rigorous
 		} else {
 			w.err[j], w.bound[j] = eE, tiltwell.Estimate
 		}
-		betaR, betaE = loR, loE
+		betaR, betaE = lv.lower(wR), lv.lower(wE)
 	}
 	return nil
+}
+
+// gap returns a lower bound on β − θ_dd for an absolute β.
+func (lv *level) gap(beta float64) float64 {
+	x := beta - lv.theta
+	y := x - lv.lo
+	return y - 3*unit*(math.Abs(x)+math.Abs(y))
+}
+
+// width returns an upper bound on θ_dd − lo for an absolute lower bound lo.
+func (lv *level) width(lo float64) float64 {
+	x := lv.theta - lo
+	y := x + lv.lo
+	return y + 3*unit*(math.Abs(x)+math.Abs(y))
+}
+
+// lower returns an absolute lower bound θ_dd − wd, rounded down.
+func (lv *level) lower(wd float64) float64 {
+	x := lv.theta - wd
+	y := x + lv.lo
+	return y - 3*unit*(math.Abs(x)+math.Abs(y))
+}
+
+// temple returns the smaller of wd and the width θ_dd − L of the
+// Kato–Temple lower bound L = ρ − σ²/(β − ρ) for a trial function with
+// ρ ∈ [θ_dd + oLo, θ_dd + oHi] (oLo ≤ 0), variance at most sig2, and g a
+// lower bound on β − θ_dd. L is concave in ρ, so its minimum over the
+// interval is at an end.
+func (lv *level) temple(wd, oLo, oHi, sig2, g float64) float64 {
+	if !(g > oHi) {
+		return wd
+	}
+	wl := sig2/(g-oLo)*(1+4*unit) - oLo
+	wh := sig2/(g-oHi)*(1+4*unit) - oHi
+	return min(wd, max(wl, wh)*(1+4*unit))
+}
+
+// errBar returns Err for a level whose exact value lies in
+// [θ_dd − wd, θ_dd + up]: the distance from the reported θ to the far
+// end, with θ_dd − θ = t_l known.
+func (lv *level) errBar(wd float64) float64 {
+	return max(wd-lv.lo, lv.up+lv.lo, 0) * (1 + 4*unit)
 }
 
 // moments fills w.mom[j] = ∫₀¹ V(ξ) cos(jπξ) dξ for j = 0..jmax by

@@ -19,6 +19,8 @@ type work struct {
 	eig   []float64        // N eigenvalues, ascending
 	lw    []float64        // LAPACK workspace
 	hc    []float64        // M×kk: (off-diagonal part of H) × (Ritz vectors)
+	hcLo  []float64        // N×kk: low parts of hc inside the basis
+	vrow  []float64        // 2kk: a potential's row sums in double-double
 	lv    []level          // kk per-level bracket data
 	theta []float64        // kk Ritz values
 	err   []float64        // kk error bars
@@ -34,14 +36,17 @@ type work struct {
 	dots            []float64 // kk inner products of a reflector
 }
 
-// level holds what the bracket of one Ritz pair needs.
+// level holds what the bracket of one Ritz pair needs. Offsets are from
+// θ_dd = theta + lo, the Rayleigh quotient of the computed Ritz vector in
+// double-double.
 type level struct {
-	theta          float64 // Rayleigh quotient of the computed Ritz vector
-	up             float64 // rounding allowance on the upper bound θ
-	rhoLoP, rhoHiP float64 // bounds on ρ of the plain Ritz vector
+	theta          float64 // θ_dd rounded to float64: the reported energy
+	lo             float64 // θ_dd − theta
+	up             float64 // bound on η_k − θ_dd (rounding, non-orthogonality)
+	offLoP, offHiP float64 // ρ of the plain Ritz vector lies in θ_dd + [offLoP, offHiP]
 	sig2P          float64 // bound on its variance
 	improved       bool    // the corrected trial function is available
-	rhoLoU, rhoHiU float64 // bounds on ρ of u = ψ + δ
+	offLoU, offHiU float64 // the same for u = ψ + δ
 	sig2U          float64 // bound on its variance
 }
 
@@ -63,6 +68,7 @@ func (w *work) sizes(N, M, kk int) {
 	w.a = grow(w.a, N*N)
 	w.eig = grow(w.eig, N)
 	w.hc = grow(w.hc, M*kk)
+	w.hcLo = grow(w.hcLo, N*kk)
 	w.lv = grow(w.lv, kk)
 	w.theta = grow(w.theta, kk)
 	w.err = grow(w.err, kk)

@@ -12,13 +12,13 @@ import (
 // relErr returns |got − want| / scale.
 func relErr(got, want, scale float64) float64 { return math.Abs(got-want) / scale }
 
-// TestAiryPublished checks the Airy functions against published values.
+// TestAiryPublished checks the Airy functions against the closed forms at
+// z = 0 and independent high-precision values elsewhere.
 func TestAiryPublished(t *testing.T) {
 	t.Parallel()
 	// DLMF 9.2.3–9.2.6 (closed forms in Γ(1/3), Γ(2/3)) at z = 0, and
-	// 20-digit values at z = ±1, ±5, as listed in
-	// shared/reference/check-values.md §1a and §1c (computed there with
-	// mpmath; Ai(1) matches a published 40-digit value).
+	// 20-digit values at z = ±1, ±5, all computed independently at high
+	// precision (mpmath), not a published table.
 	cases := []struct {
 		z                  float64
 		ai, aip, bi, bip   float64
@@ -59,8 +59,9 @@ func TestAiryPublished(t *testing.T) {
 	}
 }
 
-// TestAiryZerosTable checks a_k and Ai′(a_k) against DLMF Table 9.9.1 (A&S
-// Table 10.13), as listed with 16–17 digits in check-values.md §1b.
+// TestAiryZerosTable checks a_k and Ai′(a_k) against DLMF Table 9.9.1
+// (https://dlmf.nist.gov/9.9#T1) and A&S Table 10.13, p. 478, here with
+// 16–17 digits computed independently at high precision (mpmath).
 func TestAiryZerosTable(t *testing.T) {
 	t.Parallel()
 	table := []struct {
@@ -136,8 +137,9 @@ func TestAiryZerosAsymptotic(t *testing.T) {
 	}
 }
 
-// TestModulusPhase checks M and θ against DLMF 9.8 values listed in
-// check-values.md §1e (mpmath, 18 digits), and θ(a_k) = kπ (DLMF 9.9.1).
+// TestModulusPhase checks M and θ (DLMF 9.8.3, 9.8.4) against 18-digit
+// values computed independently at high precision (mpmath), and
+// θ(a_k) = kπ (DLMF 9.9.1).
 func TestModulusPhase(t *testing.T) {
 	t.Parallel()
 	for _, c := range []struct{ x, m, theta float64 }{
@@ -323,18 +325,19 @@ func TestTaylorTruncation(t *testing.T) {
 // TestAiryAgainstBig checks Ai, Ai′, Bi, Bi′ against the 300-bit Maclaurin
 // sums of internal/bigairy across all three evaluation ranges, each relative
 // to itself for z > 0 and relative to the modulus for z < 0, where the
-// functions oscillate. On the right the scale factor e^(±ζ) is formed from a
-// double-double ζ, so even z = 100 (ζ = 667) stays within a few ulps.
+// functions oscillate (M for Ai and Bi, N = √(Ai′² + Bi′²) for the
+// derivatives, DLMF 9.8.3, 9.8.4). On the right the scale factor e^(±ζ) is
+// formed from a double-double ζ, so even z = 100 (ζ = 667) stays within a
+// few ulps; on the left the phase (2/3)|z|^(3/2) is reduced modulo 2π
+// before it is rounded, so z = −200 (phase 1886) does too.
 func TestAiryAgainstBig(t *testing.T) {
 	t.Parallel()
-	for _, z := range []float64{-40, -13.1, -12.9, -7.3, -0.4, 0.7, 6.1, 19.9, 20.3, 30, 60, 100, 103.31} {
+	for _, z := range []float64{-200, -97.3, -40, -13.1, -12.9, -7.3, -0.4, 0.7, 6.1, 19.9, 20.3, 30, 60, 100, 103.31} {
 		ai, aip, bi, bip := Airy(z)
 		rai, raip, rbi, rbip := bigairy.Airy(big.NewFloat(z), 300)
 		m, _ := ModulusPhase(z)
 		want := func(w *big.Float) float64 { f, _ := w.Float64(); return f }
-		// Left of zero the phase (2/3)|z|^(3/2) is rounded, worth ε·|z|^(3/2)
-		// of the modulus (see Airy).
-		tolNeg := 4 * eps * (1 + math.Pow(math.Max(-z, 0), 1.5))
+		n := math.Hypot(want(raip), want(rbip))
 		for _, c := range []struct {
 			name      string
 			got, want float64
@@ -342,10 +345,10 @@ func TestAiryAgainstBig(t *testing.T) {
 		}{
 			{"Ai", ai, want(rai), m},
 			{"Bi", bi, want(rbi), m},
-			{"Ai′", aip, want(raip), math.Max(math.Abs(want(raip)), math.Abs(want(rbip)))},
-			{"Bi′", bip, want(rbip), math.Max(math.Abs(want(raip)), math.Abs(want(rbip)))},
+			{"Ai′", aip, want(raip), n},
+			{"Bi′", bip, want(rbip), n},
 		} {
-			scale, tol := c.scale, tolNeg
+			scale, tol := c.scale, 4*eps
 			if z > 0 {
 				scale, tol = math.Abs(c.want), 4*eps
 			}
@@ -358,7 +361,7 @@ func TestAiryAgainstBig(t *testing.T) {
 
 // TestAiryHugeArguments checks the documented behaviour where float64 runs
 // out: Bi overflows only once its value does, and far left the phase
-// overflows to +Inf while the modulus stays finite.
+// overflows to +Inf while the modulus stays finite and Ai, Bi stay exact.
 func TestAiryHugeArguments(t *testing.T) {
 	t.Parallel()
 	if _, _, bi, _ := Airy(103.31); math.IsInf(bi, 0) {
@@ -371,11 +374,124 @@ func TestAiryHugeArguments(t *testing.T) {
 	if !(m > 0) || !math.IsInf(th, 1) {
 		t.Errorf("ModulusPhase(−1e300) = %g, %g; want M > 0, θ = +Inf", m, th)
 	}
-	if ai, _, _, _ := Airy(-1e300); !math.IsNaN(ai) {
-		t.Errorf("Airy(−1e300) = %g; documented NaN", ai)
+	// θ overflows exactly where (2/3)|z|^(3/2) passes MaxFloat64.
+	zOver := -math.Pow(1.5, 2.0/3) * math.Pow(math.MaxFloat64, 2.0/3)
+	for _, c := range []struct {
+		z   float64
+		inf bool
+	}{{zOver * (1 - 1e-12), false}, {zOver * (1 + 1e-12), true}} {
+		if _, th := ModulusPhase(c.z); math.IsInf(th, 1) != c.inf {
+			t.Errorf("θ(%g) = %g, want +Inf: %v", c.z, th, c.inf)
+		}
 	}
 	ai, aip, bi, bip := AiryScaled(math.Inf(-1))
 	if ai != 0 || bi != 0 || !math.IsNaN(aip) || !math.IsNaN(bip) {
 		t.Errorf("AiryScaled(−Inf) = %v %v %v %v", ai, aip, bi, bip)
+	}
+}
+
+// TestAiryExtremes: no NaN from any finite argument, and the limits the
+// documentation promises: Ai → 0, Bi → +∞ as z → +∞ (DLMF 9.7.5, 9.7.7),
+// and |Ai|, |Bi| ≤ M = √(Ai² + Bi²) as z → −∞ (DLMF 9.8.1–9.8.3). Right of
+// z = 104.7 Bi and M overflow, right of 172 Ai underflows to 0; the
+// Wronskian Ai Bi′ − Ai′ Bi = 1/π (DLMF 9.2.7) holds on the left.
+func TestAiryExtremes(t *testing.T) {
+	t.Parallel()
+	var zs []float64
+	for e := -323; e <= 308; e++ {
+		for _, m := range []float64{1, 3.3, 4.2} {
+			z := m * math.Pow(10, float64(e))
+			if !math.IsInf(z, 0) {
+				zs = append(zs, z, -z)
+			}
+		}
+	}
+	zs = append(zs, math.MaxFloat64, -math.MaxFloat64, 5e-324, -5e-324, 0)
+	for _, z := range zs {
+		ai, aip, bi, bip := Airy(z)
+		sai, saip, sbi, sbip := AiryScaled(z)
+		m, th := ModulusPhase(z)
+		for _, v := range []float64{ai, aip, bi, bip, sai, saip, sbi, sbip, m, th} {
+			if math.IsNaN(v) {
+				t.Fatalf("z=%g: Airy %v %v %v %v, AiryScaled %v %v %v %v, ModulusPhase %v %v",
+					z, ai, aip, bi, bip, sai, saip, sbi, sbip, m, th)
+			}
+		}
+		for _, v := range []float64{sai, saip, sbi, sbip} {
+			if math.IsInf(v, 0) {
+				t.Errorf("AiryScaled(%g) = %v %v %v %v: infinite", z, sai, saip, sbi, sbip)
+			}
+		}
+		switch {
+		case z > 172:
+			if ai != 0 || aip != 0 || !math.IsInf(bi, 1) || !math.IsInf(bip, 1) || !math.IsInf(m, 1) || th != 0 {
+				t.Errorf("z=%g: Airy %v %v %v %v, ModulusPhase %v %v; want 0, 0, +Inf, +Inf and +Inf, 0", z, ai, aip, bi, bip, m, th)
+			}
+		case z < -negStart:
+			if !(m > 0) || math.IsInf(m, 0) || math.Abs(ai) > m*(1+4*eps) || math.Abs(bi) > m*(1+4*eps) ||
+				math.Abs(math.Hypot(ai, bi)-m) > 4*eps*m {
+				t.Errorf("z=%g: Ai %v, Bi %v, M %v: want |Ai|, |Bi| ≤ M = √(Ai² + Bi²)", z, ai, bi, m)
+			}
+			w := ai*bip - aip*bi
+			if scale := math.Abs(ai*bip) + math.Abs(aip*bi); math.Abs(w-1/math.Pi) > 8*eps*scale {
+				t.Errorf("z=%g: Wronskian %v, want 1/π", z, w)
+			}
+		}
+	}
+}
+
+// TestAiryNegativePhase holds the phase reduction of negSinCos, in
+// double-double up to x = 2³² and in math/big beyond, against the same
+// reduction done here at 200 bits more with internal/bigairy's π: the
+// sine and cosine of θ(−x) agree to 2 ulps, up to the largest float64.
+func TestAiryNegativePhase(t *testing.T) {
+	t.Parallel()
+	for _, x := range []float64{13.0001, 40, 1000, 123456.7, 0x1p32 - 1, 0x1p32, 0x1p32 + 1, 1e10, 1e11, 1e20, 5.6e102, 1e103,
+		1e205, 4.17e205, 4.2e205, 1e300, math.MaxFloat64} {
+		prec := uint(max(0, 3*math.Ilogb(x)/2+2) + 200)
+		nf := func() *big.Float { return new(big.Float).SetPrec(prec) }
+		bx := nf().SetFloat64(x)
+		p := nf().Sqrt(bx)
+		p.Mul(p, bx)
+		p.Mul(p, nf().SetInt64(2))
+		p.Quo(p, nf().SetInt64(3))
+		pi := bigairy.Pi(prec)
+		tp := nf().Mul(pi, nf().SetInt64(2))
+		q, _ := nf().Quo(p, tp).Int(nil)
+		p.Sub(p, nf().Mul(nf().SetInt(q), tp))
+		p.Add(p, nf().Quo(pi, nf().SetInt64(4)))
+		tc, _ := negPhaseCorr(x)
+		p.Add(p, nf().SetFloat64(tc))
+		hi, _ := p.Float64()
+		lo, _ := p.Sub(p, nf().SetFloat64(hi)).Float64()
+		sh, ch := math.Sincos(hi)
+		ws, wc := sh+lo*ch, ch-lo*sh
+		gs, gc := negSinCos(x, tc)
+		if math.Abs(gs-ws) > 2*eps || math.Abs(gc-wc) > 2*eps {
+			t.Errorf("x=%g: sin, cos θ = %.17g, %.17g; want %.17g, %.17g", x, gs, gc, ws, wc)
+		}
+	}
+}
+
+// TestTwoPi checks the three-part 2π and the math/big 2π against π from
+// Machin's formula in internal/bigairy.
+func TestTwoPi(t *testing.T) {
+	t.Parallel()
+	want := new(big.Float).SetPrec(bigPiPrec+64).Mul(bigairy.Pi(bigPiPrec+64), big.NewFloat(2))
+	sum := new(big.Float).SetPrec(300)
+	for _, c := range twoPi {
+		sum.Add(sum, big.NewFloat(c))
+	}
+	d, _ := sum.Sub(sum, want).Float64()
+	if math.Abs(d) > 0x1p-155 {
+		t.Errorf("twoPi parts miss 2π by %g", d)
+	}
+	got := bigTwoPi()
+	if got.Prec() != bigPiPrec {
+		t.Errorf("bigTwoPi has %d bits, want %d", got.Prec(), bigPiPrec)
+	}
+	diff := new(big.Float).SetPrec(bigPiPrec+64).Sub(got, want)
+	if diff.Sign() != 0 && diff.MantExp(nil) > -bigPiPrec+3 {
+		t.Errorf("bigTwoPi misses 2π by 2^%d", diff.MantExp(nil))
 	}
 }

@@ -1,6 +1,10 @@
 package exact
 
-import "math"
+import (
+	"math"
+	"math/big"
+	"sync"
+)
 
 // Asymptotic expansions of the Airy functions away from the node table.
 //
@@ -123,6 +127,11 @@ func negPhaseCorr(x float64) (θc, rr float64) {
 		st = (st + negT[k]) * y
 		sr = (sr + negR[k]) * y
 	}
+	if st == 0 {
+		// x³ overflowed (x > 5.6e102): θc is 0, not ∞·0 once x^(3/2)
+		// overflows too.
+		return 0, sr
+	}
 	return (2.0 / 3) * x * math.Sqrt(x) * st, sr
 }
 
@@ -163,4 +172,102 @@ func posScaled(z float64) (ai, aip, bi, bip, zeta float64) {
 	bi = rsqpi / q * su
 	bip = q * rsqpi * sv
 	return ai, aip, bi, bip, zeta
+}
+
+// negSinCos returns sin θ(−x) and cos θ(−x) for x ≥ negStart, given θc
+// of [negModPhase], where
+//
+//	θ(−x) = π/4 + (2/3) x^(3/2) + θc          (DLMF 9.8.22)
+//
+// with the large part P = (2/3) x^(3/2) reduced modulo 2π before it is
+// rounded, so that the result is good to a few ulps however large P is (a
+// float64 P has an absolute error of ε·P, which at x = 1e11 is already
+// beyond π). For x ≤ 2³² P < 2⁴⁸ is formed and reduced in double-double
+// (an absolute error below 2⁻⁵⁵); beyond, in math/big arithmetic with 80
+// bits more than P has before its point (P reaches 2¹⁵³⁶ at the largest
+// float64 x, far beyond float64 itself, but the reduced phase is always in
+// [0, 2π)). θc, below 3e-3, is added in float64.
+func negSinCos(x, tc float64) (sin, cos float64) {
+	var r dd // P mod 2π, in [−π, 2π)
+	if x <= negDDMax {
+		sx := ddSqrt(dd{x, 0})
+		p := ddMul(ddMulF(sx, x), ddTwo3)
+		k := math.Round(p.hi / (2 * math.Pi))
+		// P − k·2π with 2π in three parts, each product exact (k < 2⁴⁶).
+		h1, e1 := twoProd(k, twoPi[0])
+		h2, e2 := twoProd(k, twoPi[1])
+		r = ddAdd(p, dd{-h1, -e1})
+		r = ddAdd(r, dd{-h2, -e2})
+		r = ddAdd(r, dd{-k * twoPi[2], 0})
+	} else {
+		r = bigReduce(x)
+	}
+	r = ddAdd(ddAdd(r, ddPi4), dd{tc, 0})
+	// sin(h + l) = sin h + l cos h to within l²: |l| ≤ ulp(h)/2.
+	sh, ch := math.Sincos(r.hi)
+	return sh + r.lo*ch, ch - r.lo*sh
+}
+
+// negDDMax is the largest x whose phase negSinCos reduces in
+// double-double: (2/3) x^(3/2) < 2⁴⁸ there.
+const negDDMax = 1 << 32
+
+// twoPi is 2π in three float64 parts, twice the triple-double π
+// 3.141592653589793 + 1.2246467991473532e-16 − 2.9947698097183397e-33
+// (from memory; TestTwoPi checks it against Machin's formula at 256 bits).
+var twoPi = [3]float64{2 * math.Pi, 2 * 1.2246467991473532e-16, 2 * -2.9947698097183397e-33}
+
+// bigPiPrec is the precision of bigTwoPi: enough for the 1536 bits of
+// (2/3) x^(3/2) before the point at x = MaxFloat64, plus bigGuard.
+const (
+	bigGuard  = 80
+	bigPiPrec = 1536 + 2*bigGuard
+)
+
+// bigTwoPi is 2π to bigPiPrec bits, from Machin's formula
+// π/4 = 4 arctan(1/5) − arctan(1/239) (any text on the computation of π,
+// e.g. J. M. Borwein and P. B. Borwein, Pi and the AGM, Wiley 1987, §11.1;
+// from memory). It must not be modified.
+var bigTwoPi = sync.OnceValue(func() *big.Float {
+	const wp = bigPiPrec + 32
+	// arctan(1/n) = Σ (−1)^k / ((2k+1) n^(2k+1)).
+	atanInv := func(n int64) *big.Float {
+		sum := new(big.Float).SetPrec(wp)
+		pow := new(big.Float).SetPrec(wp).Quo(big.NewFloat(1).SetPrec(wp), new(big.Float).SetInt64(n)) // 1/n^(2k+1)
+		n2 := new(big.Float).SetPrec(wp).SetInt64(n * n)
+		term := new(big.Float).SetPrec(wp)
+		den := new(big.Float).SetPrec(wp)
+		for k := int64(0); pow.MantExp(nil) > -wp-8; k++ {
+			term.Quo(pow, den.SetInt64(2*k+1))
+			if k%2 == 0 {
+				sum.Add(sum, term)
+			} else {
+				sum.Sub(sum, term)
+			}
+			pow.Quo(pow, n2)
+		}
+		return sum
+	}
+	pi := new(big.Float).SetPrec(wp).Mul(big.NewFloat(16), atanInv(5))
+	pi.Sub(pi, new(big.Float).SetPrec(wp).Mul(big.NewFloat(4), atanInv(239)))
+	return pi.Mul(pi, big.NewFloat(2)).SetPrec(bigPiPrec)
+})
+
+// bigReduce returns (2/3) x^(3/2) mod 2π, in [0, 2π), as a double-double,
+// for any finite x ≥ 0, computed with bigGuard bits more than the phase has
+// before its point: an absolute error below 2⁻⁷⁶.
+func bigReduce(x float64) dd {
+	prec := uint(max(0, 3*math.Ilogb(x)/2+2) + bigGuard)
+	nf := func() *big.Float { return new(big.Float).SetPrec(prec) }
+	bx := nf().SetFloat64(x)
+	p := nf().Sqrt(bx)
+	p.Mul(p, bx)
+	p.Mul(p, big.NewFloat(2))
+	p.Quo(p, big.NewFloat(3))
+	tp := nf().Set(bigTwoPi())
+	q, _ := nf().Quo(p, tp).Int(nil) // ⌊P/2π⌋, P > 0
+	p.Sub(p, nf().Mul(nf().SetInt(q), tp))
+	hi, _ := p.Float64()
+	lo, _ := p.Sub(p, nf().SetFloat64(hi)).Float64()
+	return dd{hi, lo}
 }

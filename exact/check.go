@@ -4,11 +4,10 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"sync"
 
-	"github.com/google/go-cmp/cmp"
-	"github.com/google/go-cmp/cmp/cmpopts"
 	"github.com/tiltwell/tiltwell"
 	"gonum.org/v1/gonum/integrate/quad"
 )
@@ -53,10 +52,56 @@ type Point struct {
 	// Err and Bound are the solver's own error estimate and its kind.
 	Err   float64
 	Bound tiltwell.Bound
+	// RefErr is the reference's own error estimate of Want, in E₁.
+	RefErr float64
 }
 
 // True returns the true error |Got − Want|.
 func (p Point) True() float64 { return math.Abs(p.Got - p.Want) }
+
+// Excess returns how many times the true error exceeds what the two
+// estimates cover, |Got − Want| / (Err + RefErr): above 1 for an
+// undershoot, +Inf for a nonzero error with both estimates 0.
+func (p Point) Excess() float64 {
+	d := p.True()
+	if d == 0 {
+		return 0
+	}
+	return d / (p.Err + p.RefErr)
+}
+
+// Gross reports whether the point is a gross undershoot: a true error
+// beyond both the small-excess allowance and the rounding floor, that is
+//
+//	|Got − Want| > SmallExcess × (Err + RefErr)  and
+//	|Got − Want| > RoundingULPs × 2⁻⁵² × max(1, |Want|).
+//
+// [Check] never forgives a gross undershoot, whatever the Bound.
+func (p Point) Gross() bool {
+	d := p.True()
+	return d > SmallExcess*(p.Err+p.RefErr) && d > roundingFloor(p.Want)
+}
+
+// SmallExcess is the factor by which the true error of an Estimate level
+// may exceed the covered error Err + Err_exact and still count as a small
+// undershoot, of which [Check] forgives up to 1% of the grid. The tiltwell
+// rules let an estimate miss on at most 1% of a grid, by small excesses
+// only; the factor 3 is this package's choice of "small" (common
+// practice, no source).
+const SmallExcess = 3
+
+// RoundingULPs is the rounding floor of the undershoot rule, in units in
+// the last place of max(1, |η_exact|): a true error within
+// RoundingULPs × 2⁻⁵² × max(1, |η_exact|) (8.9e-16 for |η| ≤ 1) is
+// rounding of a float64 energy: at an Estimate level it counts as a small
+// undershoot however small the estimate (a Rigorous level must still
+// cover it).
+const RoundingULPs = 4
+
+// roundingFloor is RoundingULPs ulps of max(1, |eta|).
+func roundingFloor(eta float64) float64 {
+	return RoundingULPs * 0x1p-52 * math.Max(1, math.Abs(eta))
+}
 
 // Report is the result of [Check]: how far a solver is from the reference
 // and whether it keeps the [tiltwell.Solver] contract.
@@ -73,13 +118,19 @@ type Report struct {
 	// the true error: |η − η_exact| > Err + Err_exact, the reference's own
 	// estimate added so that its rounding is not held against the solver.
 	// RigorousUndershoots counts those of Rigorous levels, which the
-	// tiltwell rules never allow; Allowed is how many undershoots of
-	// Estimate levels they tolerate, 1% (rounded down) of the Estimate
-	// levels.
-	Undershoots, RigorousUndershoots, Allowed int
-	// Undershot lists the undershoots (the first maxListed), in grid
-	// order.
+	// tiltwell rules never allow. GrossUndershoots counts those of
+	// Estimate levels that are gross (see [Point.Gross]): beyond
+	// SmallExcess × (Err + Err_exact) and beyond the rounding floor
+	// RoundingULPs × 2⁻⁵² × max(1, |η_exact|); none is allowed. The
+	// others are small undershoots, and Allowed is how many of them the
+	// rules tolerate: 1% (rounded down) of the Estimate levels.
+	Undershoots, RigorousUndershoots, GrossUndershoots, Allowed int
+	// Undershot lists up to maxListed (10) undershoots: the rigorous and
+	// gross ones first, then the small ones, each group in grid order.
 	Undershot []Point
+	// WorstUndershoot is the undershoot with the largest [Point.Excess]
+	// (the first such in grid order), the zero Point if there is none.
+	WorstUndershoot Point
 	// Ratio is the most pessimistic estimate, Err/|η − η_exact| over the
 	// levels whose true error is above 1e-14; Pessimistic counts the
 	// levels beyond Grid.MaxRatio (0 if MaxRatio is 0).
@@ -96,11 +147,20 @@ type Report struct {
 	// Violations lists broken rules of the Solver contract and errors the
 	// solver returned on the grid.
 	Violations []string
-	// Diff compares the energies, keyed "f=… n=…", cmp.Diff(want, got) with
-	// cmpopts.EquateApprox(0, margin), "(-want +got)", where the margin
-	// is Tol, or the largest error estimate on the grid if Tol is 0 (plus
-	// the reference's own error in both cases). It is empty if every
-	// energy is within the margin.
+	// Margin is the distance |η − η_exact| beyond which a level enters
+	// Diff: Tol, or the largest error estimate on the grid if Tol is 0,
+	// plus the largest error estimate of the reference, in E₁.
+	Margin float64
+	// Diff lists the levels beyond Margin, and only those, in grid order,
+	// two lines each, "(-want +got)":
+	//
+	//	-f=5.1 n=3: 9.04957041621239
+	//	+f=5.1 n=3: 9.049579465782806
+	//
+	// the energies written in the shortest form that reads back as the
+	// same float64 (strconv 'g', −1). At most maxDiff (50) levels are
+	// listed, then a line "… and N more levels beyond the margin". Diff
+	// is empty if every energy is within the margin.
 	Diff string
 }
 
@@ -114,12 +174,19 @@ type WaveReport struct {
 	Overlap Worst
 }
 
-// OK reports whether the solver passed: no contract violations or solver
-// errors, no undershoot of a Rigorous level, undershoots of Estimate
-// levels within Allowed, and no level beyond Tol or
-// MaxRatio when those are set.
+// OK reports whether the solver passed:
+//   - no contract violations or solver errors;
+//   - no undershoot of a Rigorous level: |η − η_exact| ≤ Err + Err_exact
+//     at every Rigorous level;
+//   - no gross undershoot of an Estimate level: |η − η_exact| ≤
+//     SmallExcess × (Err + Err_exact) (3×), or within the rounding floor
+//     RoundingULPs × 2⁻⁵² × max(1, |η_exact|) (4 ulps), at every Estimate
+//     level;
+//   - at most Allowed (1% of the Estimate levels, rounded down) small
+//     undershoots, where the estimate misses by less than that;
+//   - no level beyond Tol or MaxRatio when those are set.
 func (r *Report) OK() bool {
-	return len(r.Violations) == 0 && r.RigorousUndershoots == 0 &&
+	return len(r.Violations) == 0 && r.RigorousUndershoots == 0 && r.GrossUndershoots == 0 &&
 		r.Undershoots-r.RigorousUndershoots <= r.Allowed && r.Beyond == 0 && r.Pessimistic == 0
 }
 
@@ -203,10 +270,11 @@ func checkLimits(tol, maxRatio float64) error {
 // check compares s with the reference levels ref[i] at fields[i].
 func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, maxRatio float64) *Report {
 	r := &Report{Solver: fmt.Sprintf("%T", s), Fields: len(fields), Tol: tol}
-	// The diff compares energies keyed by "f=… n=…": one line per side
-	// for each level beyond the margin.
-	want, got := map[string]float64{}, map[string]float64{}
-	var nEst, underEst, underRig int
+	// got[i] are the solver's energies at fields[i] (nil where it broke
+	// the contract), for the diff once the margin is known.
+	got := make([][]float64, len(fields))
+	var nEst, underEst, underRig, underGross int
+	var smallListed []Point
 	maxClaim, maxRef := 0.0, 0.0
 	for i, f := range fields {
 		k := len(ref[i])
@@ -220,13 +288,13 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 		}
 		r.dstReuse(s, ls, f, k)
 		r.mirror(s, ls, f, k)
+		got[i] = make([]float64, k)
 		for j, l := range ls {
 			rl := ref[i][j]
-			p := Point{F: f, N: l.N, Want: rl.Energy, Got: l.Energy, Err: l.Err, Bound: l.Bound}
+			p := Point{F: f, N: l.N, Want: rl.Energy, Got: l.Energy, Err: l.Err, Bound: l.Bound, RefErr: rl.Err}
 			d := p.True()
 			r.Points++
-			key := fmt.Sprintf("f=%g n=%d", f, l.N)
-			want[key], got[key] = rl.Energy, l.Energy
+			got[i][j] = l.Energy
 			maxClaim = math.Max(maxClaim, l.Err)
 			maxRef = math.Max(maxRef, rl.Err)
 			if d > r.Abs.Value || r.Points == 1 {
@@ -241,13 +309,25 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 				nEst++
 			}
 			if d > l.Err+rl.Err {
-				if l.Bound == tiltwell.Rigorous {
+				fatal := true
+				switch {
+				case l.Bound == tiltwell.Rigorous:
 					underRig++
-				} else {
+				case p.Gross():
+					underGross++
 					underEst++
+				default:
+					underEst++
+					fatal = false
 				}
-				if len(r.Undershot) < maxListed {
+				switch {
+				case fatal && len(r.Undershot) < maxListed:
 					r.Undershot = append(r.Undershot, p)
+				case !fatal && len(smallListed) < maxListed:
+					smallListed = append(smallListed, p)
+				}
+				if p.Excess() > r.WorstUndershoot.Excess() {
+					r.WorstUndershoot = p
 				}
 			}
 			if d > ratioFloor {
@@ -266,21 +346,65 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 	}
 	r.Undershoots = underEst + underRig
 	r.RigorousUndershoots = underRig
+	r.GrossUndershoots = underGross
+	for _, p := range smallListed {
+		if len(r.Undershot) == maxListed {
+			break
+		}
+		r.Undershot = append(r.Undershot, p)
+	}
 	r.Allowed = nEst / 100
 	r.badInput(s, fields[0], len(ref[0]))
 	r.concurrent(s, fields, ref)
 	if ws, ok := s.(tiltwell.WaveSolver); ok {
 		r.waves(ws, fields, ref)
 	}
-	margin := tol
-	if margin == 0 {
-		margin = maxClaim
+	r.Margin = tol
+	if r.Margin == 0 {
+		r.Margin = maxClaim
 	}
-	margin += maxRef
-	if diff := cmp.Diff(want, got, cmpopts.EquateApprox(0, margin)); diff != "" {
-		r.Diff = diff
-	}
+	r.Margin += maxRef
+	r.Diff = diff(fields, ref, got, r.Margin)
 	return r
+}
+
+// maxDiff is the most levels Report.Diff lists.
+const maxDiff = 50
+
+// diff lists the levels whose energy got[i][j] is farther than margin
+// from ref[i][j], in the format documented at Report.Diff.
+func diff(fields []float64, ref [][]tiltwell.Level, got [][]float64, margin float64) string {
+	var b []byte
+	listed, more := 0, 0
+	for i, f := range fields {
+		for j, e := range got[i] {
+			w := ref[i][j].Energy
+			if !(math.Abs(e-w) > margin) {
+				continue
+			}
+			if listed == maxDiff {
+				more++
+				continue
+			}
+			listed++
+			for _, side := range []struct {
+				sign byte
+				v    float64
+			}{{'-', w}, {'+', e}} {
+				b = append(b, side.sign, 'f', '=')
+				b = strconv.AppendFloat(b, f, 'g', -1, 64)
+				b = append(b, " n="...)
+				b = strconv.AppendInt(b, int64(j+1), 10)
+				b = append(b, ": "...)
+				b = strconv.AppendFloat(b, side.v, 'g', -1, 64)
+				b = append(b, '\n')
+			}
+		}
+	}
+	if more > 0 {
+		b = fmt.Appendf(b, "… and %d more levels beyond the margin\n", more)
+	}
+	return string(b)
 }
 
 func (r *Report) violate(format string, args ...any) {
@@ -587,10 +711,15 @@ func (r *Report) String() string {
 			fmt.Fprintf(&b, "  worst %s error %.3g at f=%g n=%d\n", w.name, w.w.Value, w.w.F, w.w.N)
 		}
 	}
-	fmt.Fprintf(&b, "  error estimates: %d of %d undershot the true error (%d of them rigorous; %d estimate undershoots allowed)\n",
-		r.Undershoots, r.Points, r.RigorousUndershoots, r.Allowed)
+	fmt.Fprintf(&b, "  error estimates: %d of %d undershot the true error (%d rigorous, %d gross, none allowed; %d small, %d allowed)\n",
+		r.Undershoots, r.Points, r.RigorousUndershoots, r.GrossUndershoots,
+		r.Undershoots-r.RigorousUndershoots-r.GrossUndershoots, r.Allowed)
+	if r.Undershoots > 0 {
+		p := r.WorstUndershoot
+		fmt.Fprintf(&b, "    worst: %s\n", p.describe())
+	}
 	for _, p := range r.Undershot {
-		fmt.Fprintf(&b, "    f=%g n=%d: true error %.3g, estimate %.3g (%v); η = %.17g, exact %.17g\n", p.F, p.N, p.True(), p.Err, p.Bound, p.Got, p.Want)
+		fmt.Fprintf(&b, "    %s\n", p.describe())
 	}
 	if r.Undershoots > len(r.Undershot) {
 		fmt.Fprintf(&b, "    … and %d more\n", r.Undershoots-len(r.Undershot))
@@ -618,8 +747,24 @@ func (r *Report) String() string {
 		}
 	}
 	if r.Diff != "" {
-		b.WriteString("  energies beyond the margin (-want +got):\n")
-		b.WriteString(r.Diff)
+		fmt.Fprintf(&b, "  energies beyond the margin %.3g (-want +got):\n", r.Margin)
+		for line := range strings.Lines(r.Diff) {
+			b.WriteString("    ")
+			b.WriteString(line)
+		}
 	}
 	return b.String()
+}
+
+// describe is one line about an undershot point for [Report.String].
+func (p Point) describe() string {
+	kind := "small"
+	switch {
+	case p.Bound == tiltwell.Rigorous:
+		kind = "rigorous"
+	case p.Gross():
+		kind = "gross"
+	}
+	return fmt.Sprintf("f=%g n=%d: %s undershoot, true error %.3g, estimate %.3g (%v) + reference %.3g, %.3g× over; η = %.17g, exact %.17g",
+		p.F, p.N, kind, p.True(), p.Err, p.Bound, p.RefErr, p.Excess(), p.Got, p.Want)
 }

@@ -2,6 +2,7 @@ package exact
 
 import (
 	"bufio"
+	"bytes"
 	"fmt"
 	"io"
 	"math"
@@ -14,30 +15,15 @@ import (
 // Table is a saved reference: the exact levels at a set of fields, written
 // to a small text file so that a solver can be checked against it later,
 // for instance in the regression tests of another project, without
-// depending on this package's solver staying the same.
+// depending on this package's solver staying the same. The file format is
+// described in the package documentation, under "Reference table files".
 //
-// # File format
-//
-// A table file is UTF-8 text, one record per line (a trailing "\r" is
-// ignored):
-//
-//	tiltwell-levels v1: f n energy err (f in F₀; energy, err in E₁)
-//	# a note, any number of lines starting with '#'
-//	10	1	0.06602629575509023	1.2490009027033011e-14
-//	10	2	4.181870005637617	1.0658141036401503e-13
-//
-// The first line must begin with "tiltwell-levels v1" followed by a colon,
-// a space or the end of the line. Lines starting with
-// '#' are comments, which make up [Table.Note]; blank lines are ignored.
-// Every other line has four fields separated by spaces or tabs: the
-// reduced field f, the level number n, the reduced energy η and the
-// reference's error estimate, in units of E₁. The numbers f, η and the
-// estimate are written by [strconv.FormatFloat] with format 'g' and
-// precision −1, the shortest text that [strconv.ParseFloat] turns back into
-// the same float64, so the round trip is lossless; n is a decimal integer.
-// The levels of one field are consecutive lines with n = 1, 2, …, k; each
-// field appears once, and the fields may come in any order and have
-// different k.
+// A table holds at most [MaxTableFields] fields, [MaxLevels] levels at each
+// field and [MaxTableRows] levels in all, and a Note of at most
+// [MaxTableNote] bytes; [ReadTable] refuses a file as soon as it passes one
+// of these limits. A table at the limits holds 69 MB once read, and
+// reading it allocates 180 MB in all (BenchmarkReadTable, 1048 fields of
+// 1000 levels; 65536 fields of 16 levels take 53 MB and 134 MB).
 type Table struct {
 	// Note is free text, written as '#' comment lines after the header;
 	// ReadTable collects every comment line into it.
@@ -49,10 +35,29 @@ type Table struct {
 	Levels [][]tiltwell.Level
 }
 
-// tableMagic begins the first line of every table file.
-const tableMagic = "tiltwell-levels v1"
+// Limits of a table and of its file.
+const (
+	// MaxTableRows is the most levels a table holds, summed over its
+	// fields: 2²⁰, 50 MB as []tiltwell.Level.
+	MaxTableRows = 1 << 20
+	// MaxTableFields is the most fields a table holds: 2¹⁶.
+	MaxTableFields = 1 << 16
+	// MaxTableNote is the longest Note, in bytes: 32 KiB (so that each of
+	// its lines, written as "# line", fits in MaxTableLine).
+	MaxTableNote = 32 << 10
+	// MaxTableLine is the longest line of a table file, in bytes, without
+	// its line end: 64 KiB.
+	MaxTableLine = 64 << 10
+)
 
-const tableHeader = tableMagic + ": f n energy err (f in F₀; energy, err in E₁)"
+// tableVersion is the format version; tableMagic begins the first line of
+// every table file.
+const (
+	tableVersion = 2
+	tableMagic   = "tiltwell-levels v"
+)
+
+var tableHeader = fmt.Sprintf("%s%d: f n energy err (f in F₀; energy, err in E₁)", tableMagic, tableVersion)
 
 // TableError reports a malformed table: the line (1 for the first line of
 // the file, 0 for a problem of the whole table) and what is wrong.
@@ -70,8 +75,13 @@ func (e *TableError) Error() string {
 
 // NewTable computes the table of the lowest k levels at each of the fields
 // with [Solver]. It returns an error, as [Solver.Levels] does, for a field
-// that is not finite or beyond MaxField and for k outside 1..MaxLevels.
+// that is not finite or beyond MaxField and for k outside 1..MaxLevels,
+// and a [*TableError], before solving anything, for more than
+// [MaxTableFields] fields or [MaxTableRows] levels in all.
 func NewTable(fields []float64, k int) (*Table, error) {
+	if len(fields) > MaxTableFields || (k > 0 && len(fields) > MaxTableRows/k) {
+		return nil, &TableError{Msg: fmt.Sprintf("%d fields of %d levels: more than %d fields or %d levels", len(fields), k, MaxTableFields, MaxTableRows)}
+	}
 	t := &Table{Fields: append([]float64(nil), fields...), Levels: make([][]tiltwell.Level, len(fields))}
 	for i, f := range fields {
 		ls, err := Solver{}.Levels(nil, f, k)
@@ -86,7 +96,8 @@ func NewTable(fields []float64, k int) (*Table, error) {
 	return t, nil
 }
 
-// WriteTo writes the table in the file format described at [Table]. It
+// WriteTo writes the table in the file format of the package
+// documentation (version 2, with its end line). It
 // returns the number of bytes written and the first error, including a
 // [*TableError] if the table itself breaks the format's rules.
 func (t *Table) WriteTo(w io.Writer) (int64, error) {
@@ -119,6 +130,7 @@ func (t *Table) WriteTo(w io.Writer) (int64, error) {
 			cw.Write(buf)
 		}
 	}
+	fmt.Fprintf(cw, "end %d\n", t.rows())
 	if cw.err != nil {
 		return cw.n, cw.err
 	}
@@ -143,35 +155,66 @@ func (c *countWriter) Write(p []byte) (int, error) {
 	return n, err
 }
 
-// ReadTable reads a table in the format described at [Table]. A malformed
-// file gives a [*TableError] naming the line.
+// ReadTable reads a table in the file format of the package documentation
+// (version 2). A malformed file gives a [*TableError] naming the line: a
+// version 1 file (which has no end line, so a cut file cannot be told from
+// a whole one), a file cut short (no end line, an end line whose count is
+// not the number of levels read, or no newline after it), text after the
+// end line, a line longer than [MaxTableLine], or a table beyond
+// [MaxTableFields] fields, [MaxTableRows] levels, [MaxLevels] levels at
+// one field or a note beyond [MaxTableNote] bytes (refused as soon as the
+// limit is passed). An error of r itself is returned wrapped, with the
+// line it happened on.
 func ReadTable(r io.Reader) (*Table, error) {
 	sc := bufio.NewScanner(r)
+	sc.Buffer(make([]byte, 0, 4096), MaxTableLine+2) // room for "\r\n"
+	sc.Split(scanLines)
 	t := &Table{}
 	var notes []string
+	noteBytes, rows := 0, 0
 	seen := map[uint64]bool{}
-	line := 0
+	line, end := 0, 0 // end: the line of "end …", once read
+	var cols [5]string
 	for sc.Scan() {
 		line++
-		text := strings.TrimSuffix(sc.Text(), "\r")
+		text, complete := strings.CutSuffix(sc.Text(), "\n")
+		text = strings.TrimSuffix(text, "\r")
+		if len(text) > MaxTableLine {
+			return nil, &TableError{Line: line, Msg: fmt.Sprintf("line longer than %d bytes", MaxTableLine)}
+		}
+		if end != 0 {
+			return nil, &TableError{Line: line, Msg: fmt.Sprintf("text after the end line (line %d)", end)}
+		}
 		if line == 1 {
-			// The version must be exactly v1: "v10" is another format.
-			if rest, ok := strings.CutPrefix(text, tableMagic); !ok || (rest != "" && rest[0] != ':' && rest[0] != ' ') {
-				return nil, &TableError{Line: 1, Msg: fmt.Sprintf("does not begin with %q", tableMagic)}
+			if err := checkVersion(text); err != nil {
+				return nil, err
+			}
+			if !complete {
+				return nil, &TableError{Line: 1, Msg: "no line after the header: the file is cut short"}
 			}
 			continue
 		}
 		if strings.HasPrefix(text, "#") {
-			note := strings.TrimPrefix(text, "#")
-			notes = append(notes, strings.TrimPrefix(note, " "))
+			note := strings.TrimPrefix(strings.TrimPrefix(text, "#"), " ")
+			if noteBytes += len(note) + 1; noteBytes > MaxTableNote+1 {
+				return nil, &TableError{Line: line, Msg: fmt.Sprintf("note longer than %d bytes", MaxTableNote)}
+			}
+			notes = append(notes, note)
 			continue
 		}
-		cols := strings.Fields(text)
-		if len(cols) == 0 {
+		nc := splitFields(cols[:], text)
+		if nc == 0 {
 			continue
 		}
-		if len(cols) != 4 {
-			return nil, &TableError{Line: line, Msg: fmt.Sprintf("%d fields, want 4 (f n energy err)", len(cols))}
+		if cols[0] == "end" {
+			if err := checkEnd(cols[:nc], rows, line, complete); err != nil {
+				return nil, err
+			}
+			end = line
+			continue
+		}
+		if nc != 4 {
+			return nil, &TableError{Line: line, Msg: fmt.Sprintf("%s fields, want 4 (f n energy err) or an end line", tooMany(nc, len(cols)))}
 		}
 		f, err1 := strconv.ParseFloat(cols[0], 64)
 		n, err2 := strconv.Atoi(cols[1])
@@ -182,9 +225,15 @@ func ReadTable(r io.Reader) (*Table, error) {
 				return nil, &TableError{Line: line, Msg: err.Error()}
 			}
 		}
+		if rows++; rows > MaxTableRows {
+			return nil, &TableError{Line: line, Msg: fmt.Sprintf("more than %d levels", MaxTableRows)}
+		}
 		last := len(t.Fields) - 1
 		switch {
 		case n == 1:
+			if len(t.Fields) == MaxTableFields {
+				return nil, &TableError{Line: line, Msg: fmt.Sprintf("more than %d fields", MaxTableFields)}
+			}
 			if seen[math.Float64bits(f)] {
 				return nil, &TableError{Line: line, Msg: fmt.Sprintf("field %v appears twice", f)}
 			}
@@ -200,17 +249,106 @@ func ReadTable(r io.Reader) (*Table, error) {
 			return nil, &TableError{Line: line, Msg: msg}
 		}
 	}
-	if err := sc.Err(); err != nil {
+	switch err := sc.Err(); {
+	case err == bufio.ErrTooLong:
+		return nil, &TableError{Line: line + 1, Msg: fmt.Sprintf("line longer than %d bytes", MaxTableLine)}
+	case err != nil:
 		return nil, fmt.Errorf("exact: reference table, line %d: %w", line+1, err)
-	}
-	if line == 0 {
+	case line == 0:
 		return nil, &TableError{Line: 1, Msg: "empty file"}
+	case end == 0:
+		return nil, &TableError{Line: line + 1, Msg: fmt.Sprintf("no end line after %d levels: the file is cut short", rows)}
 	}
 	t.Note = strings.Join(notes, "\n")
 	if err := t.validate(); err != nil {
 		return nil, err
 	}
 	return t, nil
+}
+
+// scanLines is a [bufio.SplitFunc] that returns each line with its "\n",
+// if it has one, so that a last line without it can be told apart.
+func scanLines(data []byte, atEOF bool) (advance int, token []byte, err error) {
+	if i := bytes.IndexByte(data, '\n'); i >= 0 {
+		return i + 1, data[:i+1], nil
+	}
+	if atEOF && len(data) > 0 {
+		return len(data), data, nil
+	}
+	return 0, nil, nil
+}
+
+// splitFields splits text at runs of spaces and tabs into cols, as
+// [strings.Fields] does for these two, without allocating. It returns the
+// number of fields, len(cols)+1 if there are more than cols holds.
+func splitFields(cols []string, text string) int {
+	n := 0
+	for i := 0; i < len(text); {
+		if c := text[i]; c == ' ' || c == '\t' {
+			i++
+			continue
+		}
+		if n == len(cols) {
+			return n + 1
+		}
+		j := i + 1
+		for j < len(text) && text[j] != ' ' && text[j] != '\t' {
+			j++
+		}
+		cols[n] = text[i:j]
+		n++
+		i = j
+	}
+	return n
+}
+
+// tooMany formats a field count from [splitFields], which stops counting at
+// max+1.
+func tooMany(n, max int) string {
+	if n > max {
+		return fmt.Sprintf("more than %d", max)
+	}
+	return strconv.Itoa(n)
+}
+
+// checkVersion checks the header line: version 2, the present one. The
+// version must be exactly 2: "v20" is another format.
+func checkVersion(text string) error {
+	rest, ok := strings.CutPrefix(text, tableMagic)
+	if !ok {
+		return &TableError{Line: 1, Msg: fmt.Sprintf("does not begin with %q", tableMagic+strconv.Itoa(tableVersion))}
+	}
+	v := rest
+	if i := strings.IndexAny(rest, ": "); i >= 0 {
+		v = rest[:i]
+	}
+	switch v {
+	case strconv.Itoa(tableVersion):
+		return nil
+	case "1":
+		return &TableError{Line: 1, Msg: "version 1 table: it has no end line, so a file cut short cannot be told " +
+			"from a whole one; write it again with Table.WriteTo, or, after making sure it is whole, " +
+			"change v1 to v2 and add the line \"end N\" (N the number of levels)"}
+	}
+	return &TableError{Line: 1, Msg: fmt.Sprintf("format version %q, this package reads version %d", v, tableVersion)}
+}
+
+// checkEnd checks the end line "end N" at line: N must be the number of
+// levels read, rows, and the line must end in a newline.
+func checkEnd(cols []string, rows, line int, complete bool) error {
+	if len(cols) != 2 {
+		return &TableError{Line: line, Msg: fmt.Sprintf("end line with %d fields, want 2 (end N)", len(cols))}
+	}
+	n, err := strconv.Atoi(cols[1])
+	switch {
+	case err != nil:
+		return &TableError{Line: line, Msg: "end line: " + err.Error()}
+	case n != rows:
+		return &TableError{Line: line, Msg: fmt.Sprintf("end line counts %d levels, the file has %d: the file is cut short or edited", n, rows)}
+	case !complete:
+		return &TableError{Line: line, Msg: "no newline after the end line: the file is cut short"}
+	}
+	return nil
 }
 
 // badRow describes what is wrong with one level of a table, or returns "".
@@ -260,7 +398,25 @@ func (t *Table) validate() error {
 	if strings.ContainsAny(t.Note, "\r") {
 		return &TableError{Msg: "note contains a carriage return"}
 	}
+	if len(t.Note) > MaxTableNote {
+		return &TableError{Msg: fmt.Sprintf("note of %d bytes, more than %d", len(t.Note), MaxTableNote)}
+	}
+	if n := len(t.Fields); n > MaxTableFields {
+		return &TableError{Msg: fmt.Sprintf("%d fields, more than %d", n, MaxTableFields)}
+	}
+	if n := t.rows(); n > MaxTableRows {
+		return &TableError{Msg: fmt.Sprintf("%d levels, more than %d", n, MaxTableRows)}
+	}
 	return nil
+}
+
+// rows is the number of levels in the table.
+func (t *Table) rows() int {
+	n := 0
+	for _, ls := range t.Levels {
+		n += len(ls)
+	}
+	return n
 }
 
 // Check holds the solver s against the table, as [Check] does against the

@@ -10,7 +10,8 @@ import (
 )
 
 // dipoleElement returns ⟨m|ξ|n⟩ in the basis √2 sin(nπξ): −8mn/(π²(m² − n²)²)
-// for m + n odd, 0 for m + n even, m ≠ n (check-values.md §3, verified there
+// for m + n odd, 0 for m + n even, m ≠ n (derived by integration by parts;
+// common practice, no source; checked independently at high precision
 // with mpmath).
 func dipoleElement(m, n int) float64 {
 	if (m+n)%2 == 0 {
@@ -20,23 +21,25 @@ func dipoleElement(m, n int) float64 {
 	return -8 * float64(m) * float64(n) / (math.Pi * math.Pi * d * d)
 }
 
-// TestSecondOrder checks C_n three ways: the published values, the direct
-// sum over states, and the closed-form recursion of series.go.
+// TestSecondOrder checks C_n three ways: values computed independently at
+// high precision, the direct sum over states, and the closed-form
+// recursion of series.go.
 func TestSecondOrder(t *testing.T) {
 	t.Parallel()
-	// check-values.md §3, table of C_n (computed there with mpmath, 40
-	// digits, from the sum over states).
-	published := []float64{
+	// C_n = (n²π² − 15)/(48 n⁴ π²), computed independently at high
+	// precision (mpmath, 40 digits, from the sum over states; no published
+	// table with an equation number was found), 15 digits kept.
+	independent := []float64{
 		-0.0108295365548972,
 		0.00322940396531892,
 		0.00192391518656505,
 		0.00117840024783243,
 		0.000782672741512164,
 	}
-	for i, want := range published {
+	for i, want := range independent {
 		n := i + 1
 		if got := secondOrder(n); math.Abs(got-want) > 1e-14*math.Abs(want) { // 15 digits printed
-			t.Errorf("n=%d: C_n = %.17g, check-values.md §3 gives %.17g", n, got, want)
+			t.Errorf("n=%d: C_n = %.17g, the independent value is %.17g", n, got, want)
 		}
 	}
 	// Direct sum over states Σ_(m≠n) |⟨m|ξ|n⟩|²/(n² − m²) up to m = M.
@@ -66,7 +69,8 @@ func TestSecondOrder(t *testing.T) {
 		})
 	}
 	// Large n, recursion against closed form, and the two-wall WKB limit
-	// C_n → 1/(48 n²) (check-values.md §3 and §9).
+	// C_n → 1/(48 n²) (the closed form's limit, and the expansion of the
+	// two-wall WKB rule: see TestFourthOrderWKB).
 	for _, n := range []int{50, 200, 1000} {
 		c, _ := series(n)
 		closed := secondOrder(n)
@@ -170,8 +174,8 @@ func TestRecursionResidual(t *testing.T) {
 
 // TestFourthOrderWKB checks c₄ against the two-wall WKB rule, which is exact
 // to leading order in 1/n: from (2/(3f))[(η + f/2)^(3/2) − (η − f/2)^(3/2)] = n
-// (check-values.md §9; Griffiths, Introduction to Quantum Mechanics, 2nd
-// ed., §8.3, from memory), expanding in f gives √η = n + f²/(96n³) +
+// (D. J. Griffiths, Introduction to Quantum Mechanics, 2nd ed., §8.3,
+// from memory), expanding in f gives √η = n + f²/(96n³) +
 // f⁴/(6144n⁷) + …, so η = n² + f²/(48n²) + f⁴/(2304n⁶) + … (derived here).
 // The correction is O(1/n²), as for C_n.
 func TestFourthOrderWKB(t *testing.T) {

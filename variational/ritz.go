@@ -81,6 +81,7 @@ type ritzResult struct {
 func (sp *space) searchTilt(sh shape, dim, n int, f, guess float64, warm bool) (beta float64, evals int) {
 	o := &sp.search
 	o.sh, o.dim, o.n, o.f, o.evals = sh, dim, n, f, 0
+	guess = math.Max(-maxTilt, math.Min(maxTilt, guess)) // a finite guess; warm ones are checked
 	o.r = rules()[pickRule(dim, guess)]
 	h := 0.25 + 0.2*math.Abs(guess)
 	if warm {

@@ -34,12 +34,11 @@ func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	var w tiltwell.Wavefunction
 	if s.Family == Tilt {
 		sp := spacePool.Get().(*space)
-		b := sp.tiltBracket(af, tiltGuess(af))
+		beta := sp.tiltOptimum(af, tiltGuess(af))
 		spacePool.Put(sp)
-		ss, _, _, _, _, _ := tiltMoments(b.Tilt)
+		ss, _, _, _, _, _ := tiltMoments(beta)
 		// ∫ sin²(πξ) e^(−2β(ξ−½)) dξ = cosh β · ss.
-		norm := math.Sqrt(math.Cosh(b.Tilt) * ss)
-		beta := b.Tilt
+		norm := math.Sqrt(math.Cosh(beta) * ss)
 		w = tiltwell.WaveFunc(func(xi float64) float64 {
 			return math.Sin(math.Pi*xi) * math.Exp(-beta*(xi-0.5)) / norm
 		})

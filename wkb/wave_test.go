@@ -88,7 +88,8 @@ func TestWavefunction(t *testing.T) {
 	}
 }
 
-// f = 0: the closed form √2 sin(nπξ) (DESIGN.md).
+// f = 0: the closed form √2 sin(nπξ) (the flat well; common practice, no
+// source).
 func TestWavefunctionZeroField(t *testing.T) {
 	t.Parallel()
 	for _, n := range []int{1, 4, 100} {
@@ -104,7 +105,8 @@ func TestWavefunctionZeroField(t *testing.T) {
 	}
 }
 
-// Mirror: φ_n(ξ; −f) = (−1)^(n+1) φ_n(1 − ξ; f) (DESIGN.md, tiltwell.Fold).
+// Mirror: φ_n(ξ; −f) = (−1)^(n+1) φ_n(1 − ξ; f) (mirror symmetry; common
+// practice, no source; tiltwell.Fold).
 func TestWavefunctionMirror(t *testing.T) {
 	t.Parallel()
 	for _, n := range []int{1, 2, 5} {

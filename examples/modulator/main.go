@@ -72,7 +72,7 @@ func run(w io.Writer, s tiltwell.WaveSolver, name string, fields []float64) erro
 	fmt.Fprintf(w, "L = %g nm, m_e = %g m₀, m_hh = %g m₀; E₁(e) = %.3f meV, E₁(hh) = %.3f meV. Method: %s.\n\n",
 		demoPair.Width*1e9, demoPair.Electron, demoPair.Hole, we.MilliEV(1), wh.MilliEV(1), name)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "F kV/cm\tf_e\tf_hh\tred shift meV\t± meV\toverlap e1-hh1\toverlap²\toverlap² e1-hh2\t")
+	fmt.Fprintf(tw, "F kV/cm\tf_e\tf_hh\tred shift meV\t± meV\toverlap %v\toverlap²\toverlap² %v\t\n", ts[0], ts[1])
 	for i := 0; i < len(lines); i += len(ts) {
 		l11, l12 := lines[i], lines[i+1]
 		fmt.Fprintf(tw, "%g\t%.3f\t%.3f\t%.4f\t%.1g\t%.6f\t%.6f\t%.6f\t\n",

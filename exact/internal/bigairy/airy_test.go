@@ -7,7 +7,8 @@ import (
 	"testing"
 )
 
-// DLMF 9.2.3–9.2.6; values from check-values.md §1a (mpmath, 20 digits).
+// DLMF 9.2.3–9.2.6; 20-digit values computed independently at high
+// precision (mpmath).
 func TestInitial(t *testing.T) {
 	t.Parallel()
 	ai0, aip0, bi0, bip0 := Initial(128)
@@ -27,7 +28,8 @@ func TestInitial(t *testing.T) {
 	}
 }
 
-// check-values.md §1c (mpmath, 17 digits) and §1a at z = 0.
+// 17-digit values computed independently at high precision (mpmath), and
+// DLMF 9.2.3–9.2.6 at z = 0.
 func TestAiryValues(t *testing.T) {
 	t.Parallel()
 	for _, c := range []struct {
@@ -198,7 +200,9 @@ func TestAiryLargePositive(t *testing.T) {
 	}
 }
 
-// DLMF Table 9.9.1 via check-values.md §1b: zeros a_k of Ai and Ai′(a_k).
+// DLMF Table 9.9.1 (A&S Table 10.13, p. 478): zeros a_k of Ai and
+// Ai′(a_k), here to 17 digits computed independently at high precision
+// (mpmath).
 // The zeros are refined here by Newton's method on the big-float Ai and
 // compared with the table to its 17 digits; Θ(a_k) = kπ (DLMF 9.9.1).
 func TestAiryZeros(t *testing.T) {
@@ -253,7 +257,8 @@ func airyZero(z *big.Float, prec uint) *big.Float {
 	return z
 }
 
-// DLMF 9.8 modulus and phase, check-values.md §1e (18 digits):
+// DLMF 9.8 modulus and phase (9.8.3, 9.8.4), 18-digit values computed
+// independently at high precision (mpmath):
 // M = √(Ai² + Bi²), θ = Θ on the continuous branch with Θ(0) = π/6.
 func TestModulusPhase(t *testing.T) {
 	t.Parallel()
@@ -314,7 +319,7 @@ func TestPhaseDerivative(t *testing.T) {
 	}
 }
 
-// DLMF 9.8.22 with the four terms of check-values.md §1e, for x < 0:
+// DLMF 9.8.22 with its first four terms, for x < 0:
 // θ(x) ~ π/4 + (2/3)(−x)^(3/2)(1 + (5/32)x^−3 + (1105/6144)x^−6 + (82825/65536)x^−9).
 // The omitted term is of order ζ|x|^−12: the error relative to θ ≈ ζ is
 // allowed 30|x|^−12. (Measured: 21.8|x|^−12 at all three x, the constant
@@ -364,7 +369,8 @@ func TestNodesRounding(t *testing.T) {
 			t.Errorf("node %d: z = %v", j, a[j][0])
 		}
 	}
-	// Spot values against check-values.md §1c and §1e (float64, 1 ulp).
+	// Spot values against those of TestAiryValues and TestModulusPhase
+	// (float64, 1 ulp).
 	for _, c := range []struct {
 		j    int
 		col  int

