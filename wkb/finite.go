@@ -418,7 +418,6 @@ func (sc *scan) next(n int, guess float64) (point, string, error) {
 	return p, "", nil
 }
 
-
 func (w *well) why(byAction bool) string {
 	if byAction {
 		return fmt.Sprintf("not below the downhill barrier's top by an under-barrier action of %.3g ħ (quasiclassical limit of the method)", minBarrierAction)

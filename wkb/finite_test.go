@@ -2,7 +2,6 @@ package wkb_test
 
 import (
 	"errors"
-	"fmt"
 	"math"
 	"math/rand/v2"
 	"sort"
@@ -10,6 +9,7 @@ import (
 	"testing"
 
 	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/wkb"
 )
 
@@ -56,25 +56,31 @@ func finiteCases() []finiteCase {
 // finiteFields are the fields of the grid, both signs.
 var finiteFields = []float64{0.01, 0.03, 0.1, 0.2, 0.3, 0.5, 0.7, 1, 1.5, 2, 3, 4, 5, 7, 10, -0.1, -1, -3, -10}
 
-// finiteResult is one level held against the reference.
+// finiteResult is one level held against the exact solver.
 type finiteResult struct {
-	c           finiteCase
-	f           float64
-	lv          tiltwell.Level
-	eta, gamma  float64 // reference
-	zetaL       float64 // the under-barrier action, from the level
-	dEta, dGam  float64 // true errors
-	okRef       bool
-	refusedNext string
+	c          finiteCase
+	f          float64
+	lv, ex     tiltwell.Level
+	zetaL      float64 // the under-barrier action, from the level
+	dEta, dGam float64 // true errors
 }
 
-// runFiniteGrid solves every well of the grid at every field with s's
-// rule and the reference.
-func runFiniteGrid(t *testing.T, plain bool) []finiteResult {
+// finiteGrid holds a rule's levels on the grid against the exact solver,
+// and counts the levels exact confines that the rule does not report, by
+// the rule's reason.
+type finiteGrid struct {
+	res       []finiteResult
+	exact     int
+	refusals  map[string]int
+	extraWKB  int // levels the rule reports beyond exact's
+	maxRefuse float64
+}
+
+// runFiniteGrid solves every well of the grid at every field with the
+// rule and with exact.Solver.
+func runFiniteGrid(t *testing.T, plain bool) finiteGrid {
 	t.Helper()
-	var out []finiteResult
-	refusals := map[string]int{}
-	defer func() { t.Logf("first unconfined levels: %v", refusals) }()
+	g := finiteGrid{refusals: map[string]int{}}
 	for _, c := range finiteCases() {
 		st := c.stack(t)
 		s := wkb.Solver{Stack: st, Plain: plain}
@@ -84,97 +90,143 @@ func runFiniteGrid(t *testing.T, plain bool) []finiteResult {
 			if err != nil && !errors.As(err, &ce) {
 				t.Fatalf("%+v f=%g: %v", c, f, err)
 			}
-			if ce != nil {
+			ex, err := exact.Solver{Stack: st}.Levels(nil, f, 100)
+			if err != nil && !errors.As(err, new(*tiltwell.ConfinedError)) {
+				t.Fatalf("%+v f=%g: exact: %v", c, f, err)
+			}
+			g.exact += len(ex)
+			if len(ls) < len(ex) && ce != nil {
 				why := ce.Why
 				if i := strings.Index(why, ": "); i >= 0 {
 					why = why[i+2:]
 				}
-				if i := strings.Index(why, "("); i >= 0 {
+				if i := strings.Index(why, " ("); i >= 0 {
 					why = why[:i]
 				}
-				refusals[why]++
+				g.refusals[why] += len(ex) - len(ls)
 			}
+			g.extraWKB += max(0, len(ls)-len(ex))
 			w := c.ref(f)
-			for _, l := range ls {
-				er, g, ok := w.refLevel(complex(l.Energy, -l.Gamma/2))
+			for i := range min(len(ls), len(ex)) {
+				l := ls[i]
 				ul := w.vL - l.Energy - w.f/2
-				r := finiteResult{c: c, f: f, lv: l, eta: er, gamma: g, okRef: ok,
+				g.res = append(g.res, finiteResult{c: c, f: f, lv: l, ex: ex[i],
 					zetaL: 2 * math.Pi * math.Sqrt(w.mL) / (3 * w.f) * ul * math.Sqrt(max(ul, 0)),
-					dEta:  math.Abs(l.Energy - er), dGam: math.Abs(l.Gamma - g)}
-				out = append(out, r)
+					dEta:  math.Abs(l.Energy - ex[i].Energy), dGam: math.Abs(l.Gamma - ex[i].Gamma)})
 			}
 		}
 	}
-	return out
+	return g
 }
 
-// TestFiniteAgainstReference holds the connection rule on finite wells to
-// the shooting reference over the grid: energy and Γ estimates below the
-// true error on at most 1% of the levels, and the pessimism measured
-// where the true error is above 1e-12.
-func TestFiniteAgainstReference(t *testing.T) {
+// TestFiniteAgainstExact holds the connection rule on finite wells to
+// exact.Solver over the grid (barriers 2 to 50 E₁, mass ratios 1 to 2,
+// symmetric and asymmetric, |f| ≤ 10): energy and Γ estimates below the
+// true error on at most 1% of the levels, and no more than 10×
+// pessimistic where the true error is above 1e-12 (issue 12's rule),
+// beyond the exact solver's own error.
+func TestFiniteAgainstExact(t *testing.T) {
 	t.Parallel()
-	res := runFiniteGrid(t, false)
-	var under, underG, pess, pessG, measured, measuredG int
-	var worst, worstG, worstRel float64
-	var measuredRel, pessRel int
+	g := runFiniteGrid(t, false)
+	st := finiteStats(t, g.res)
+	t.Logf("exact confines %d levels; the rule reports %d (%.1f%%), refuses %v, reports %d beyond exact's", g.exact, len(g.res), 100*float64(len(g.res))/float64(g.exact), g.refusals, g.extraWKB)
+	if st.under > len(g.res)/100 || st.underG > len(g.res)/100 {
+		t.Errorf("undershoots: η %d, Γ %d of %d levels (allowed %d)", st.under, st.underG, len(g.res), len(g.res)/100)
+	}
+	if st.pess > len(g.res)/200 || st.pessG > 0 {
+		t.Errorf("beyond 10× pessimistic: η %d, Γ %d of %d levels", st.pess, st.pessG, len(g.res))
+	}
+	if g.extraWKB > 0 {
+		t.Errorf("%d levels reported that exact does not confine", g.extraWKB)
+	}
+}
+
+type gridStats struct {
+	under, underG, pess, pessG, measured, measuredG int
+	worst, worstG, median                           float64
+}
+
+// finiteStats counts undershoots and pessimism, logging each.
+func finiteStats(t *testing.T, res []finiteResult) gridStats {
+	var st gridStats
 	var ratios []float64
 	for _, r := range res {
-		if !r.okRef {
-			t.Errorf("%+v f=%g n=%d: reference did not settle", r.c, r.f, r.lv.N)
-			continue
-		}
-		tolE := 1e-13 * max(1, math.Abs(r.eta))
-		if r.dEta > r.lv.Err+tolE {
-			under++
-			t.Logf("undershoot: %+v f=%g n=%d ζ_L=%.3g: η=%.12g ref %.12g err %.3g est %.3g", r.c, r.f, r.lv.N, r.zetaL, r.lv.Energy, r.eta, r.dEta, r.lv.Err)
+		// The exact level's own error counts on its side.
+		if r.dEta > r.lv.Err+r.ex.Err {
+			st.under++
+			t.Logf("undershoot: %+v f=%g n=%d ζ_L=%.3g: η=%.12g exact %.12g err %.3g est %.3g", r.c, r.f, r.lv.N, r.zetaL, r.lv.Energy, r.ex.Energy, r.dEta, r.lv.Err)
 		}
 		if r.dEta > 1e-12 {
-			measured++
+			st.measured++
 			q := r.lv.Err / r.dEta
 			ratios = append(ratios, q)
-			worst = max(worst, q)
+			st.worst = max(st.worst, q)
 			if q > 10 {
-				pess++
+				st.pess++
 				t.Logf("pessimistic: %+v f=%g n=%d ζ_L=%.3g: err %.3g est %.3g (%.3g×)", r.c, r.f, r.lv.N, r.zetaL, r.dEta, r.lv.Err, q)
 			}
 		}
-		tolG := 1e-9*r.gamma + 1e-300
-		if r.dGam > r.lv.GammaErr+tolG {
-			underG++
-			t.Logf("Γ undershoot: %+v f=%g n=%d ζ_L=%.3g: Γ=%.6g ref %.6g rel err %.3g est %.3g", r.c, r.f, r.lv.N, r.zetaL, r.lv.Gamma, r.gamma, r.dGam/r.gamma, r.lv.GammaErr/r.gamma)
+		// exact's narrow widths were measured to differ from the
+		// independent flux formula of reference_test.go by up to 4e-9
+		// of Γ, beyond their GammaErr (both it and this package's
+		// first-order width agree with the flux to 1e-12): that much
+		// is allowed for.
+		if r.dGam > r.lv.GammaErr+r.ex.GammaErr+1e-8*r.ex.Gamma {
+			st.underG++
+			t.Logf("Γ undershoot: %+v f=%g n=%d ζ_L=%.3g: Γ=%.6g exact %.6g rel err %.3g est %.3g", r.c, r.f, r.lv.N, r.zetaL, r.lv.Gamma, r.ex.Gamma, r.dGam/r.ex.Gamma, r.lv.GammaErr/r.ex.Gamma)
 		}
-		// Pessimism of Γ: the rule's absolute threshold (an error above
-		// 1e-12), and for information the relative one (above 1e-9 of
-		// Γ, away from the underflow floor).
 		if r.dGam > 1e-12 {
-			measuredG++
+			st.measuredG++
 			q := r.lv.GammaErr / r.dGam
-			worstG = max(worstG, q)
+			st.worstG = max(st.worstG, q)
 			if q > 10 {
-				pessG++
+				st.pessG++
 				t.Logf("Γ pessimistic: %+v f=%g n=%d ζ_L=%.3g: err %.3g est %.3g (%.3g×)", r.c, r.f, r.lv.N, r.zetaL, r.dGam, r.lv.GammaErr, q)
-			}
-		}
-		if r.dGam > 1e-9*r.gamma && r.gamma > 1e-290 && r.lv.Gamma > 0 {
-			measuredRel++
-			q := r.lv.GammaErr / r.dGam
-			worstRel = max(worstRel, q)
-			if q > 10 {
-				pessRel++
-				t.Logf("Γ rel pessimistic: %+v f=%g n=%d ζ_L=%.3g: rel err %.3g est %.3g (%.3g×)", r.c, r.f, r.lv.N, r.zetaL, r.dGam/r.gamma, r.lv.GammaErr/r.gamma, q)
 			}
 		}
 	}
 	sort.Float64s(ratios)
-	med := 0.0
 	if len(ratios) > 0 {
-		med = ratios[len(ratios)/2]
+		st.median = ratios[len(ratios)/2]
 	}
-	t.Logf("%d levels: η undershoots %d, %d beyond 10× of %d measured (worst %.3g×, median %.3g×); Γ undershoots %d, %d beyond 10× of %d with error > 1e-12 (worst %.3g×), %d beyond 10× of %d with relative error > 1e-9 (worst %.3g×)",
-		len(res), under, pess, measured, worst, med, underG, pessG, measuredG, worstG, pessRel, measuredRel, worstRel)
-	if under > len(res)/100 || underG > len(res)/100 {
-		t.Errorf("undershoots: η %d, Γ %d of %d levels (allowed %d)", under, underG, len(res), len(res)/100)
+	t.Logf("%d levels: η undershoots %d, %d beyond 10× of %d with error > 1e-12 (worst %.3g×, median %.3g×); Γ undershoots %d, %d beyond 10× of %d with error > 1e-12 (worst %.3g×)",
+		len(res), st.under, st.pess, st.measured, st.worst, st.median, st.underG, st.pessG, st.measuredG, st.worstG)
+	return st
+}
+
+// The shooting reference of reference_test.go, which shares no code with
+// package exact, confirms exact.Solver on a sample of the grid: η to
+// 1e-12 and Γ to the shooting's resolution (1e-5 of Γ).
+func TestReferenceAgreesWithExact(t *testing.T) {
+	t.Parallel()
+	cs := finiteCases()
+	checked := 0
+	for i, c := range cs {
+		if i%7 != 0 {
+			continue
+		}
+		st := c.stack(t)
+		for _, f := range []float64{0.3, 3, -1} {
+			ex, err := exact.Solver{Stack: st}.Levels(nil, f, 100)
+			if err != nil && !errors.As(err, new(*tiltwell.ConfinedError)) {
+				t.Fatal(err)
+			}
+			w := c.ref(f)
+			for _, l := range ex {
+				er, g, ok := w.refLevel(complex(l.Energy, -l.Gamma/2))
+				if !ok {
+					t.Errorf("%+v f=%g n=%d: shooting did not settle", c, f, l.N)
+					continue
+				}
+				checked++
+				if d := math.Abs(er - l.Energy); d > 1e-12*max(1, math.Abs(er)) {
+					t.Errorf("%+v f=%g n=%d: η shooting %.15g, exact %.15g", c, f, l.N, er, l.Energy)
+				}
+				if d := math.Abs(g - l.Gamma); d > 1e-5*l.Gamma+1e-300 {
+					t.Errorf("%+v f=%g n=%d: Γ shooting %.10g, exact %.10g", c, f, l.N, g, l.Gamma)
+				}
+			}
+		}
 	}
-	fmt.Print()
+	t.Logf("%d levels checked", checked)
 }

@@ -202,7 +202,12 @@ func (w refWell) thickStart(eta float64) float64 {
 func (w refWell) refLevel(guess complex128) (etaR, gamma float64, ok bool) {
 	e0, e1 := guess, guess+complex(1e-6*math.Max(1, cmplx.Abs(guess)), 0)
 	d0, d1 := w.mismatch(e0), w.mismatch(e1)
+	best, bestD := e1, cmplx.Abs(d1)
 	for it := 0; it < 60; it++ {
+		if d1 == 0 {
+			ok = true
+			break
+		}
 		if d1 == d0 || cmplx.IsNaN(d1) {
 			break
 		}
@@ -210,13 +215,19 @@ func (w refWell) refLevel(guess complex128) (etaR, gamma float64, ok bool) {
 		e0, d0 = e1, d1
 		e1 = e2
 		d1 = w.mismatch(e1)
-		if cmplx.Abs(e1-e0) < 1e-14*math.Max(1, cmplx.Abs(e1)) {
-			ok = true
+		if a := cmplx.Abs(d1); a < bestD {
+			best, bestD = e1, a
+		}
+		// Down to rounding: the narrow width is the smallest part of η.
+		step := cmplx.Abs(e1 - e0)
+		ok = step < 1e-12*math.Max(1, cmplx.Abs(e1))
+		if step < 1e-15*math.Max(1, cmplx.Abs(e1)) {
 			break
 		}
 	}
+	e1 = best
 	etaR, gamma = real(e1), -2*imag(e1)
-	if gamma < 1e-6*math.Max(1, math.Abs(etaR)) {
+	if gamma < 1e-9*math.Max(1, math.Abs(etaR)) {
 		gamma = w.fluxGamma(etaR)
 	}
 	return etaR, gamma, ok
