@@ -136,7 +136,9 @@ func barrierOrder(zetaL float64) (k int, sig, dsig float64) {
 	}
 	k = int(kr)
 	t := kr - float64(k)
-	return k, t * t * (3 - 2*t), 12 * t * (1 - t)
+	// σ = 6t⁵ − 15t⁴ + 10t³: its first and second derivatives vanish at
+	// both ends, so the level has two continuous derivatives in f.
+	return k, t * t * t * (10 + t*(6*t-15)), 60 * t * t * (1 - t) * (1 - t)
 }
 
 // barrierSeries returns U₊ = Σ_(k≤K) u_k ζ^(−k) and V₊ = Σ v_k ζ^(−k)

@@ -10,6 +10,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/internal/squarewell"
 	"github.com/tiltwell/tiltwell/wkb"
 )
 
@@ -229,4 +230,268 @@ func TestReferenceAgreesWithExact(t *testing.T) {
 		}
 	}
 	t.Logf("%d levels checked", checked)
+}
+
+// The plain rule on the same grid: its Err is its distance from the
+// connection rule plus that rule's estimate, so it must cover its error
+// just as well.
+func TestFinitePlainAgainstExact(t *testing.T) {
+	t.Parallel()
+	g := runFiniteGrid(t, true)
+	st := finiteStats(t, g.res)
+	if st.under > len(g.res)/100 || st.underG > len(g.res)/100 {
+		t.Errorf("undershoots: η %d, Γ %d of %d levels (allowed %d)", st.under, st.underG, len(g.res), len(g.res)/100)
+	}
+}
+
+// At f = 0 both rules give the square well's levels, the roots of
+// k + δ_L + δ_R = nπ with tan δ = μ_b k/κ (internal/squarewell, itself
+// tested against the textbook even and odd conditions), with Γ = 0; at
+// tiny fields the general path (Airy functions, the barrier's series)
+// reaches them to the second-order Stark shift, O(f²).
+func TestFiniteZeroField(t *testing.T) {
+	t.Parallel()
+	for _, c := range []finiteCase{{4.3, 1.37, 4.3, 1.37}, {10, 1, 20, 2}, {50, 2, 3, 1}, {1e4, 1.5, 1e4, 1.5}} {
+		sq, err := squarewell.FromStack(c.stack(t))
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, plain := range []bool{false, true} {
+			s := wkb.Solver{Stack: c.stack(t), Plain: plain}
+			for _, f := range []float64{0, math.Copysign(0, -1), 1e-200, 1e-7, -1e-5} {
+				k := min(sq.Count(), 30)
+				ls, err := s.Levels(nil, f, k)
+				if err != nil {
+					t.Fatalf("%+v f=%g: %v", c, f, err)
+				}
+				for _, l := range ls {
+					want, _, err := sq.Level(l.N)
+					if err != nil {
+						t.Fatal(err)
+					}
+					// The Stark shift is at most |f|/2 (|dη/df| =
+					// |⟨ξ − ½⟩|, Hellmann–Feynman, with the state mostly
+					// in the well).
+					tol := 8*0x1p-52*want + math.Abs(f)/2
+					if d := math.Abs(l.Energy - want); d > tol {
+						t.Errorf("%+v plain=%v f=%g n=%d: η = %.17g ± %.2g, square well %.17g", c, plain, f, l.N, l.Energy, l.Err, want)
+					}
+					if f == 0 && (l.Gamma != 0 || l.GammaErr != 0) {
+						t.Errorf("%+v f=0 n=%d: Γ = %g ± %g, want 0", c, l.N, l.Gamma, l.GammaErr)
+					}
+				}
+			}
+		}
+	}
+}
+
+// Levels of a well at f and of its mirror image at −f agree exactly
+// (Stack.Fold), and a symmetric well's are even in f.
+func TestFiniteMirror(t *testing.T) {
+	t.Parallel()
+	c := finiteCase{12, 1.2, 7, 1.8}
+	a, errA := wkb.Solver{Stack: c.stack(t)}.Levels(nil, 2.5, 10)
+	b, errB := wkb.Solver{Stack: c.stack(t).Mirror()}.Levels(nil, -2.5, 10)
+	if len(a) == 0 || len(a) != len(b) || (errA == nil) != (errB == nil) {
+		t.Fatalf("%d levels (%v) and %d mirrored (%v)", len(a), errA, len(b), errB)
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			t.Errorf("n=%d: %+v, mirrored %+v", i+1, a[i], b[i])
+		}
+	}
+}
+
+// Bad input and unsupported stacks: errors wrapping the root sentinels
+// (errors.ErrUnsupported for more than one well), never a panic; levels
+// beyond the confined ones: the confined ones with a ConfinedError.
+func TestFiniteErrors(t *testing.T) {
+	t.Parallel()
+	five, err := tiltwell.NewStack([]tiltwell.Layer{{Edge: 5, Mass: 1}, {Width: 1, Mass: 1}, {Width: 0.3, Edge: 5, Mass: 1}, {Width: 1, Mass: 1}, {Edge: 5, Mass: 1}}, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, plain := range []bool{false, true} {
+		s := wkb.Solver{Stack: five, Plain: plain}
+		ls, err := s.Levels(nil, 1, 2)
+		if !errors.Is(err, errors.ErrUnsupported) || len(ls) != 0 {
+			t.Errorf("five layers: %d levels, %v; want ErrUnsupported", len(ls), err)
+		}
+		if w, err := s.Wavefunction(1, 1); !errors.Is(err, errors.ErrUnsupported) || w != nil {
+			t.Errorf("five layers: wavefunction %v, %v; want ErrUnsupported", w, err)
+		}
+	}
+	s := wkb.Solver{Stack: finiteCase{4.3, 1.37, 4.3, 1.37}.stack(t)}
+	for _, tt := range []struct {
+		f    float64
+		k    int
+		want error
+	}{
+		{math.NaN(), 1, tiltwell.ErrField},
+		{math.Inf(-1), 1, tiltwell.ErrField},
+		{1, 0, tiltwell.ErrLevel},
+		{1, wkb.MaxLevels + 1, tiltwell.ErrLevel},
+		{2 * wkb.MaxField, 1, tiltwell.ErrOutOfRange},
+	} {
+		if ls, err := s.Levels(nil, tt.f, tt.k); !errors.Is(err, tt.want) || len(ls) != 0 {
+			t.Errorf("f=%g k=%d: %d levels, %v; want %v", tt.f, tt.k, len(ls), err, tt.want)
+		}
+	}
+	for _, f := range []float64{0, 1, -3, 50} {
+		ls, err := s.Levels(nil, f, 40)
+		n, ok := tiltwell.Confined(err)
+		if !ok || n != len(ls) || !errors.Is(err, tiltwell.ErrLevel) {
+			t.Errorf("f=%g: %d levels with %v; want the confined ones with a ConfinedError", f, len(ls), err)
+		}
+		for _, l := range ls {
+			if math.IsNaN(l.Energy+l.Err+l.Gamma+l.GammaErr) || l.Err < 0 || l.Gamma < 0 || l.GammaErr < 0 {
+				t.Errorf("f=%g: bad level %+v", f, l)
+			}
+		}
+	}
+	// A barrier below the well binds nothing at zero field.
+	low, err := tiltwell.AsymmetricWell(-1, 1, 5, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ls, err := (wkb.Solver{Stack: low}).Levels(nil, 0, 1); len(ls) != 0 || !errors.Is(err, tiltwell.ErrLevel) {
+		t.Errorf("barrier below the well: %d levels, %v", len(ls), err)
+	}
+}
+
+// Levels on a finite well do not allocate when dst has capacity.
+func TestFiniteAllocs(t *testing.T) {
+	if raceEnabled {
+		t.Skip("the race detector allocates")
+	}
+	for _, tc := range []struct {
+		c finiteCase
+		f float64
+		k int
+	}{{finiteCase{4.3, 1.37, 4.3, 1.37}, 1, 2}, {finiteCase{50, 2, 20, 1}, 3, 5}, {finiteCase{10, 1, 10, 1}, 0, 3}} {
+		for _, plain := range []bool{false, true} {
+			s := wkb.Solver{Stack: tc.c.stack(t), Plain: plain}
+			dst := make([]tiltwell.Level, 0, tc.k)
+			var err error
+			a := testing.AllocsPerRun(20, func() { dst, err = s.Levels(dst, tc.f, tc.k) })
+			if err != nil || a != 0 {
+				t.Errorf("%+v f=%g plain=%v: %v allocations per call (err %v)", tc.c, tc.f, plain, a, err)
+			}
+		}
+	}
+}
+
+// One Solver value on a finite well from many goroutines gives the serial
+// results.
+func TestFiniteConcurrent(t *testing.T) {
+	t.Parallel()
+	s := wkb.Solver{Stack: finiteCase{20, 1.3, 30, 1.6}.stack(t)}
+	want, err := s.Levels(nil, 1.7, 5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	done := make(chan []tiltwell.Level)
+	for range 8 {
+		go func() {
+			got, _ := s.Levels(nil, 1.7, 5)
+			done <- got
+		}()
+	}
+	for range 8 {
+		got := <-done
+		for i := range want {
+			if got[i] != want[i] {
+				t.Errorf("n=%d: %+v concurrently, %+v serially", i+1, got[i], want[i])
+			}
+		}
+	}
+}
+
+// The levels are continuous in the field, through the blends of the
+// barrier's series, the turning point crossing the uphill interface and
+// the second-order shift of broad levels: the largest step of η on a
+// scan shrinks in proportion to the step of f (a jump would keep its
+// size), and stays below the dipole bound |dη/df| = |⟨ξ − ½⟩| ≤ 2 on
+// these wells (Hellmann–Feynman; the states reach less than 1.5 past
+// either interface).
+func TestFiniteContinuous(t *testing.T) {
+	t.Parallel()
+	for _, c := range []finiteCase{{10, 1.37, 10, 1.37}, {50, 1, 8, 2}} {
+		s := wkb.Solver{Stack: c.stack(t)}
+		for n := 1; n <= 3; n++ {
+			largest := func(h float64) (float64, float64) {
+				prev, w, at := math.NaN(), 0.0, 0.0
+				for i := 0; ; i++ {
+					f := 0.05 + float64(i)*h
+					ls, err := s.Levels(nil, f, n)
+					if err != nil || f > 10 {
+						break
+					}
+					if d := math.Abs(ls[n-1].Energy - prev); d > w {
+						w, at = d, f
+					}
+					prev = ls[n-1].Energy
+				}
+				return w, at
+			}
+			w1, at := largest(4e-3)
+			w2, _ := largest(1e-3)
+			if w1/w2 < 3 || w1 > 2*4e-3 {
+				t.Errorf("%+v n=%d: largest steps of η %.3g and %.3g for steps of f 4e-3 and 1e-3 (near f = %.4g)", c, n, w1, w2, at)
+			}
+			t.Logf("%+v n=%d: largest steps of η %.3g, %.3g (ratio %.3g), near f = %.4g", c, n, w1, w2, w1/w2, at)
+		}
+	}
+}
+
+func FuzzFiniteLevels(f *testing.F) {
+	for _, s := range []struct {
+		vL, mL, vR, mR, f float64
+		k                 int
+	}{{4.3, 1.37, 4.3, 1.37, 1, 3}, {50, 2, 2, 1, -7, 5}, {2, 1, 2, 1, 0, 1}, {1e4, 1, 1e4, 1, 1e4, 10}, {-1, 1, 5, 1, 3, 2}, {10, 1e-6, 10, 1e6, 1e-9, 4}, {1e300, 1, 3, 1, 0.5, 2}} {
+		f.Add(s.vL, s.mL, s.vR, s.mR, s.f, s.k, false)
+		f.Add(s.vL, s.mL, s.vR, s.mR, s.f, s.k, true)
+	}
+	f.Fuzz(func(t *testing.T, vL, mL, vR, mR, fl float64, k int, plain bool) {
+		st, err := tiltwell.AsymmetricWell(vL, mL, vR, mR)
+		if err != nil {
+			return
+		}
+		k %= 60
+		s := wkb.Solver{Stack: st, Plain: plain}
+		ls, err := s.Levels(nil, fl, k)
+		if err != nil {
+			if n, ok := tiltwell.Confined(err); ok {
+				if n != len(ls) {
+					t.Fatalf("ConfinedError says %d, %d levels returned", n, len(ls))
+				}
+			} else if len(ls) != 0 {
+				t.Fatalf("levels returned with %v", err)
+			}
+			if !errors.Is(err, tiltwell.ErrField) && !errors.Is(err, tiltwell.ErrLevel) && !errors.Is(err, tiltwell.ErrOutOfRange) && !errors.Is(err, tiltwell.ErrNoConvergence) {
+				t.Fatalf("error %v wraps no root sentinel", err)
+			}
+		}
+		for i, l := range ls {
+			if math.IsNaN(l.Energy) || math.IsInf(l.Energy, 0) || !(l.Err >= 0) || math.IsInf(l.Err, 0) || !(l.Gamma >= 0) || math.IsInf(l.Gamma, 0) || !(l.GammaErr >= 0) || math.IsInf(l.GammaErr, 0) || l.N != i+1 {
+				t.Fatalf("bad level %+v", l)
+			}
+			if i > 0 && !(l.Energy > ls[i-1].Energy) {
+				t.Fatalf("levels %d, %d out of order: %v, %v", i, i+1, ls[i-1].Energy, l.Energy)
+			}
+		}
+		if len(ls) == 0 || len(ls) > 10 {
+			return
+		}
+		w, err := s.Wavefunction(fl, len(ls))
+		if err != nil {
+			t.Fatalf("Wavefunction(%d) after Levels gave it: %v", len(ls), err)
+		}
+		lo, hi := tiltwell.Support(w)
+		for _, x := range []float64{lo, lo / 2, 0, 0.5, 1, (1 + hi) / 2, hi} {
+			if v := w.At(x); math.IsNaN(v) || math.IsInf(v, 0) {
+				t.Fatalf("φ(%g) = %v", x, v)
+			}
+		}
+	})
 }
