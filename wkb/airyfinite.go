@@ -102,8 +102,22 @@ func airyAiLog(z float64) float64 {
 		th, m2, dm2 := airyTabD(z)
 		return (dm2/2 - 1/(math.Pi*math.Tan(th))) / m2
 	}
-	ai, aip := airyAiScaledPos(z)
-	return aip / ai
+	// −√z V₋/U₋ with U₋ = Σ (−1)^k u_k ζ^(−k), V₋ likewise (DLMF 9.7.5,
+	// 9.7.6): ζ ≥ 27.7 here, so a dozen terms reach rounding.
+	c := airyCoefs()
+	s := math.Sqrt(z)
+	r := -1.5 / (z * s)
+	u, v, p := 1.0, 1.0, 1.0
+	for k := 1; k < airyTerms; k++ {
+		p *= r
+		tu, tv := c.u[k]*p, c.v[k]*p
+		u += tu
+		v += tv
+		if math.Abs(tu)+math.Abs(tv) < 1e-18 {
+			break
+		}
+	}
+	return -s * v / u
 }
 
 // airyWall returns, at any real x, the connection phase χ(x) = θ(x) − ζ̄(x)

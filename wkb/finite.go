@@ -141,6 +141,40 @@ func barrierOrder(zetaL float64) (k int, sig, dsig float64) {
 	return k, t * t * t * (10 + t*(6*t-15)), 60 * t * t * (1 - t) * (1 - t)
 }
 
+// barrierSeriesErr returns the estimate of the error of a quantity that
+// changes by sB δB/B + sU δU₊/U₊ with the relative errors of
+// B = √z V₊/U₊ and U₊ in the blend of [barrierOrder] at ζ: after each
+// truncation K, the next three terms' changes, each counted at most as
+// large as the one before, blended with the same weight.
+func barrierSeriesErr(zeta, sB, sU float64) float64 {
+	c := airyCoefs()
+	k, sig, _ := barrierOrder(zeta)
+	b := 1 / zeta
+	// Partial sums U_j, V_j for j = 0..k+4.
+	var u, v [maxBarrierOrder + 5]float64
+	u[0], v[0] = 1, 1
+	bk := 1.0
+	for j := 1; j <= k+4; j++ {
+		bk *= b
+		u[j] = u[j-1] + c.u[j]*bk
+		v[j] = v[j-1] + c.v[j]*bk
+	}
+	est := 0.0
+	for j, wt := range [2]float64{1 - sig, sig} {
+		if wt == 0 {
+			continue
+		}
+		cp := math.Inf(1)
+		r0, u0 := v[k+j]/u[k+j], u[k+j]
+		for i := k + j + 1; i <= k+j+3; i++ {
+			d := sB*(v[i]/u[i]-v[i-1]/u[i-1])/r0 + sU*(u[i]-u[i-1])/u0
+			cp = min(cp, math.Abs(d))
+			est += wt * cp
+		}
+	}
+	return est
+}
+
 // barrierSeries returns U₊ = Σ_(k≤K) u_k ζ^(−k) and V₊ = Σ v_k ζ^(−k)
 // (DLMF 9.7.7–9.7.8) and their derivatives with respect to b = 1/ζ.
 func barrierSeries(b float64, K int) (u, v, du, dv float64) {
@@ -321,10 +355,8 @@ func (w *well) solve(n int, lo, hi, guess float64) (point, error) {
 		step := (fn - p.psi) / p.dpsi
 		next := e + step
 		as := math.Abs(step)
+		// A step at the rounding of ψ leaves e within it of the root.
 		if as <= 2*eps*e+2*eps*(fn+1)/p.dpsi || hi-lo <= 4*eps*hi {
-			if next > lo && next < hi {
-				return w.eval(next), nil
-			}
 			return p, nil
 		}
 		if !(next > lo && next < hi) {
@@ -385,18 +417,18 @@ func (w *well) scanLevels(dst []tiltwell.Level, f float64, k int, plain bool) ([
 
 // scan finds the levels of the connection rule in increasing order.
 type scan struct {
-	w        *well
-	lo, hi   float64 // the bracket of the next level
-	psiHi    float64 // ψ at hi
-	byAction bool    // hi is set by minBarrierAction, not by the ceiling
+	w            *well
+	lo, hi       float64 // the bracket of the next level
+	psiLo, psiHi float64 // ψ at the bottom of the well and at hi
+	byAction     bool    // hi is set by minBarrierAction, not by the ceiling
 }
 
 func (w *well) newScan() scan {
 	sc := scan{w: w}
 	sc.lo, sc.hi, sc.byAction = w.limits()
-	sc.psiHi = math.Inf(-1)
+	sc.psiLo, sc.psiHi = math.Inf(1), math.Inf(-1)
 	if sc.hi > sc.lo {
-		sc.psiHi = w.eval(sc.hi).psi
+		sc.psiLo, sc.psiHi = w.eval(sc.lo).psi, w.eval(sc.hi).psi
 	}
 	return sc
 }
@@ -409,8 +441,13 @@ func (sc *scan) next(n int, guess float64) (point, string, error) {
 	if sc.psiHi < fn {
 		return point{}, sc.w.why(sc.byAction), nil
 	}
-	if n == 1 && sc.w.eval(sc.lo).psi >= fn {
-		return point{}, "below the well's bottom", nil
+	if n == 1 {
+		if sc.psiLo >= fn {
+			return point{}, "below the well's bottom", nil
+		}
+		// ψ grows about as √e (the well's action) from the bottom.
+		r := (fn - sc.psiLo) / (sc.psiHi - sc.psiLo)
+		guess = sc.lo + (sc.hi-sc.lo)*r*r
 	}
 	p, err := sc.w.solve(n, sc.lo, sc.hi, guess)
 	if err != nil {
@@ -468,38 +505,33 @@ func (w *well) finish(n int, p point) (tiltwell.Level, string) {
 	// The next three terms of the barrier's series after each of the
 	// blended truncations, each counted at most as large as the one
 	// before (past its smallest term the series grows, and the error
-	// stays about the size of that term), blended with the same weight.
-	ws := w.wellSide(p.e)
-	k, sig, _ := barrierOrder(p.zetaL)
-	var dF, dLnG float64
-	for j, wt := range [2]float64{1 - sig, sig} {
-		if wt == 0 {
-			continue
-		}
-		prev := w.withBarrier(ws, p.zl, p.zetaL, k+j)
-		lnPrev := w.lnG(&prev, p.zl, p.zetaL)
-		capF, capG := math.Inf(1), math.Inf(1)
-		for kb := k + j + 1; kb <= k+j+3; kb++ {
-			dk := w.withBarrier(ws, p.zl, p.zetaL, kb)
-			lnK := w.lnG(&dk, p.zl, p.zetaL)
-			capF = min(capF, math.Abs(dk.dL-prev.dL))
-			capG = min(capG, math.Abs(lnK-lnPrev))
-			dF += wt * capF
-			dLnG += wt * capG
-			prev, lnPrev = dk, lnK
-		}
-	}
+	// stays about the size of that term), blended with the same weight:
+	// relative errors eB of B and eU of U₊ (TestBarrierSeries measures
+	// them against the Airy modulus), turned into the phase and ln G by
+	// their sensitivities, ∂d_L/∂B = −y q_L/(x² + y²) and
+	// ∂ln G/∂B = −2x q_L/(x² + y²).
+	sens := w.qL * d.b / d.d2
+	dF := barrierSeriesErr(p.zetaL, d.y*sens, 0)
+	dLnG := barrierSeriesErr(p.zetaL, 2*d.x*sens, 2)
 	eta := p.e - w.f/2
 	fn := float64(n)
 	// Rounding: ψ ≈ n to a few ε (n + 1), the Airy phases to
 	// ε (2 + ζ̄) in the table; η = e − f/2 to ε (|η| + e)/2.
-	zb := 2.0 / 3 * max(-p.x1, 0) * math.Sqrt(max(-p.x1, 0))
-	round := eps*(4*(fn+1)+(4+2*fn+zb)/math.Pi)/p.dpsi + eps*(math.Abs(eta)+p.e)
+	// The table's phases carry ε (2 + ζ̄) each (as for hard walls);
+	// beyond it the phases are formed without their large part.
+	zb := 0.0
+	for _, x := range [2]float64{p.x1, -p.e * w.invEa} {
+		if x >= airyLo && x <= airyHi {
+			zb += 2 + 2.0/3*max(-x, 0)*math.Sqrt(max(-x, 0))
+		}
+	}
+	round := eps*(4*(fn+1)+(4+zb)/math.Pi)/p.dpsi + eps*(math.Abs(eta)+p.e)
 	errE := finiteSafety*dF/fp + round + 4*math.Abs(eta2)*gc + g*gc*gc
 	lv := tiltwell.Level{N: n, Energy: eta + eta2, Err: errE, Bound: tiltwell.Estimate}
 	// F′ errs by the e-derivative of the phase error; the truncation
 	// error falls off like ζ_L^(−K−1), so its log-derivative is about
 	// (K + 1)/ζ_L times dζ_L/de = −κ(0)/f.
+	k, _, _ := barrierOrder(p.zetaL)
 	dzeta := w.cL * math.Sqrt(p.zl) * w.invEa
 	relFp := dF * float64(k+1) * dzeta / (p.zetaL * fp)
 	rel := finiteSafety*math.Expm1(dLnG) + relFp + (math.Abs(chi1)+2*math.Abs(kappa2))*errE + gc*gc +
