@@ -2,6 +2,7 @@ package wkb_test
 
 import (
 	"errors"
+	"flag"
 	"math"
 	"math/rand/v2"
 	"sort"
@@ -169,9 +170,18 @@ func finiteStats(t *testing.T, res []finiteResult) gridStats {
 		}
 		// exact's narrow widths were measured to differ from the
 		// independent flux formula of reference_test.go by up to 4e-9
-		// of Γ, beyond their GammaErr (both it and this package's
-		// first-order width agree with the flux to 1e-12): that much
-		// is allowed for.
+		// of Γ on the grid of issue 12 (and by 1.5e-7 at |f| ≈ 100),
+		// beyond their GammaErr, while this package's width agrees with
+		// the flux to 1e-12: that much is allowed for, and beyond it a
+		// narrow level (ζ_L > 12, where the flux formula holds to
+		// e^(−2ζ_L)) is held to the flux instead.
+		if r.dGam > r.lv.GammaErr+r.ex.GammaErr+1e-8*r.ex.Gamma && r.zetaL > 12 {
+			fl := r.c.ref(r.f).fluxGamma(r.ex.Energy)
+			if d := math.Abs(r.lv.Gamma - fl); d <= r.lv.GammaErr+1e-12*fl {
+				t.Logf("Γ: %+v f=%g n=%d: exact %.12g, flux %.12g, this package %.12g ± %.2g", r.c, r.f, r.lv.N, r.ex.Gamma, fl, r.lv.Gamma, r.lv.GammaErr)
+				r.dGam = d
+			}
+		}
 		if r.dGam > r.lv.GammaErr+r.ex.GammaErr+1e-8*r.ex.Gamma {
 			st.underG++
 			t.Logf("Γ undershoot: %+v f=%g n=%d ζ_L=%.3g: Γ=%.6g exact %.6g rel err %.3g est %.3g", r.c, r.f, r.lv.N, r.zetaL, r.lv.Gamma, r.ex.Gamma, r.dGam/r.ex.Gamma, r.lv.GammaErr/r.ex.Gamma)
@@ -193,6 +203,67 @@ func finiteStats(t *testing.T, res []finiteResult) gridStats {
 	t.Logf("%d levels: η undershoots %d, %d beyond 10× of %d with error > 1e-12 (worst %.3g×, median %.3g×); Γ undershoots %d, %d beyond 10× of %d with error > 1e-12 (worst %.3g×)",
 		len(res), st.under, st.pess, st.measured, st.worst, st.median, st.underG, st.pessG, st.measuredG, st.worstG)
 	return st
+}
+
+// randomWells is the number of seeded random finite wells of
+// TestFiniteRandomWells (0 in an ordinary run).
+var randomWells = flag.Int("finite-wells", 0, "number of random finite wells TestFiniteRandomWells holds against the exact solver")
+
+// TestFiniteRandomWells holds the connection rule to exact.Solver on
+// seeded random wells (-finite-wells N): barriers 2 to 50 E₁ (a third of
+// them symmetric), mass ratios 1 to 2, six random fields each with
+// 0.01 ≤ |f| ≤ 10; and as many more with barriers to 2000 E₁ and
+// |f| ≤ 300. The same rules as the fixed grid.
+func TestFiniteRandomWells(t *testing.T) {
+	if *randomWells == 0 {
+		t.Skip("run with -finite-wells N")
+	}
+	for _, big := range []bool{false, true} {
+		rng := rand.New(rand.NewPCG(99, 7))
+		var res []finiteResult
+		nex := 0
+		for range *randomWells {
+			vmax, fmax := 50.0, 10.0
+			if big {
+				vmax, fmax = 2000, 300
+			}
+			v := func() float64 { return 2 * math.Pow(vmax/2, rng.Float64()) }
+			m := func() float64 { return 1 + rng.Float64() }
+			c := finiteCase{v(), m(), v(), m()}
+			if rng.IntN(3) == 0 {
+				c.vR, c.mR = c.vL, c.mL
+			}
+			st := c.stack(t)
+			for range 6 {
+				f := math.Copysign(fmax*math.Pow(10, -3*rng.Float64()), rng.Float64()-0.5)
+				ls, err := wkb.Solver{Stack: st}.Levels(nil, f, 100)
+				if err != nil && !errors.As(err, new(*tiltwell.ConfinedError)) {
+					t.Fatalf("%+v f=%g: %v", c, f, err)
+				}
+				ex, err := exact.Solver{Stack: st}.Levels(nil, f, 100)
+				if err != nil && !errors.As(err, new(*tiltwell.ConfinedError)) {
+					t.Fatalf("%+v f=%g: exact: %v", c, f, err)
+				}
+				nex += len(ex)
+				if len(ls) > len(ex) {
+					t.Errorf("%+v f=%g: %d levels, exact confines %d", c, f, len(ls), len(ex))
+				}
+				w := c.ref(f)
+				for i := range min(len(ls), len(ex)) {
+					l := ls[i]
+					ul := w.vL - l.Energy - w.f/2
+					res = append(res, finiteResult{c: c, f: f, lv: l, ex: ex[i],
+						zetaL: 2 * math.Pi * math.Sqrt(w.mL) / (3 * w.f) * ul * math.Sqrt(max(ul, 0)),
+						dEta:  math.Abs(l.Energy - ex[i].Energy), dGam: math.Abs(l.Gamma - ex[i].Gamma)})
+				}
+			}
+		}
+		t.Logf("barriers to %g E₁: exact confines %d levels, the rule reports %d", map[bool]float64{false: 50, true: 2000}[big], nex, len(res))
+		st := finiteStats(t, res)
+		if st.under > len(res)/100 || st.underG > len(res)/100 {
+			t.Errorf("undershoots: η %d, Γ %d of %d levels", st.under, st.underG, len(res))
+		}
+	}
 }
 
 // The shooting reference of reference_test.go, which shares no code with
