@@ -135,7 +135,12 @@ func airyWall(x float64) (chi, dchi, y, l float64) {
 		// θ′ + √t = √t (P² + Q² − 1)/(P² + Q²), with P² + Q² − 1 formed
 		// from P − 1 so that it does not cancel.
 		pm := p - 1
-		return math.Pi/4 - math.Atan(q/p), st * (pm*(p+1) + q*q) / pq, st / pq, st * (q*r - p*s) / pq
+		// |Q/P| ≈ u₁/ζ < 1.7e-3 for ζ ≥ 42.7: four terms of the
+		// arctangent series reach 1e-26 (as in airyNeg).
+		v := q / p
+		v2 := v * v
+		beta := v * (1 - v2*(1.0/3-v2*(1.0/5-v2/7)))
+		return math.Pi/4 - beta, st * (pm*(p+1) + q*q) / pq, st / pq, st * (q*r - p*s) / pq
 	case x <= airyHi:
 		th, m2, dm2 := airyTabD(x)
 		y = 1 / (math.Pi * m2)
