@@ -10,49 +10,26 @@ import (
 )
 
 // This file puts the quantisation on a single finite well: the reference
-// well between a left barrier v_L, μ_L and a right barrier v_R, μ_R. The
-// field is folded to f ≥ 0 with [tiltwell.Stack.Fold], so the left barrier
-// is the downhill one (the carrier escapes through it) and the right one
-// is uphill. With e = η + f/2, the kinetic energy at the downhill
-// interface ξ = 0:
+// well between a left barrier v_L, μ_L and a right barrier v_R, μ_R (see
+// the package documentation, "Finite barriers", for the rule, its sources
+// and its measured accuracy). The field is folded to f ≥ 0 with
+// [tiltwell.Stack.Fold], so the left barrier is the downhill one, through
+// which the carrier escapes, and the right one is uphill. With
+// e = η + f/2, the kinetic energy at the downhill interface ξ = 0, and
+// ε_A = (f/π)^(2/3):
 //
-//	well:            k(ξ) = π √(e − f ξ),        Airy coordinate x = (fξ − e)/ε_A
-//	left barrier:    κ(ξ) = π √(μ_L (v_L − e + f ξ)),  z_L = μ_L^(1/3) (v_L − e)/ε_A at ξ = 0
-//	right barrier:   κ(ξ) = π √(μ_R (v_R − e + f ξ)),  z_R = μ_R^(1/3) (v_R − e + f)/ε_A at ξ = 1
+//	well:           x = (fξ − e)/ε_A,                    x₀ = −e/ε_A, x₁ = (f − e)/ε_A
+//	left barrier:   z = μ_L^(1/3) (v_L − e + fξ)/ε_A,     z_L at ξ = 0, ζ_L = (2/3) z_L^(3/2)
+//	right barrier:  z = μ_R^(1/3) (v_R − e + fξ)/ε_A,     z_R at ξ = 1
 //
-// with ε_A = (f/π)^(2/3). The well's solution is R M(x) sin(θ(x) − α) in
-// the Airy modulus and phase; a level is where the phase it needs at the
-// two interfaces fits:
+// The level function, in units of π (ψ = F/π, with dψ/de for Newton's
+// method), is
 //
-//	F(η) = [θ(x₀) − θ(x₁)] + d_L + g_R = nπ.
+//	F = S + χ(x₀) + d_L − χ(x₁) + g_R,
+//	d_L = atan2(y(x₀), q_L B − l(x₀)),   g_R = atan2(y(x₁), l(x₁) − q_R Ai′/Ai(z_R)),
 //
-// θ(x₀) − θ(x₁) = S + χ(x₀) − χ(x₁), S = ∫ k dξ over the allowed part of
-// the well, is the well's share, as for hard walls. The step phases d_L and
-// g_R come from BenDaniel–Duke matching of φ and (1/μ) dφ/dξ at each
-// interface (D. J. BenDaniel and C. B. Duke, Phys. Rev. 152, 683 (1966)):
-// for the solution M sin Θ, with y = 1/(πM²) = −dθ/dx and l = M′/M,
-//
-//	(1/μ_w) φ′/φ = s (l − y cot Θ)   (s = dx/dξ = (π² f)^(1/3))
-//
-// and the barrier's log-derivative is s μ_b^(1/3) λ, λ = Ai′/Ai (uphill:
-// the decaying solution) or λ = B = M_b′/M_b (downhill: the real part of
-// the log-derivative of the outgoing wave Bi + i Ai, whose imaginary part
-// −1/(πM_b²) is the escape, below). Matching gives, with q = μ_b^(−2/3),
-//
-//	d_L = atan2(y(x₀), q_L B(z_L) − l(x₀)),   g_R = atan2(y(x₁), l(x₁) − q_R λ(z_R)),
-//
-// each in (0, π). For plane waves (y → k/s, l → 0, λ → ∓κ/(s μ_b^(1/3)))
-// they are the textbook step phases tan δ = μ_b k/(μ_w κ): at f = 0 the
-// condition is k + δ_L + δ_R = nπ, exact for the square well (see
-// internal/squarewell), and for an infinitely high barrier the phase is 0
-// (the hard wall).
-//
-// The connection rule evaluates the uphill interface with the Airy
-// functions to all digits (there the turning point may cross the
-// interface, as on the hard wall of the infinite well) and the downhill
-// interface with the phase-integral series of the modulus and phase of
-// both sides truncated after the ζ^(−2) terms (DLMF 9.7.9–9.7.10, 9.7.7–9.7.8):
-// its error is the ζ^(−3) terms, which give the estimate.
+// with y = 1/(πM²), l = M′/M of the well's Airy pair, q = μ^(−2/3), and B
+// the downhill barrier's log-derivative from its phase-integral series.
 
 // Validity limits of the quasiclassical treatment of the downhill barrier.
 const (
@@ -459,7 +436,7 @@ func (sc *scan) next(n int, guess float64) (point, string, error) {
 
 func (w *well) why(byAction bool) string {
 	if byAction {
-		return fmt.Sprintf("not below the downhill barrier's top by an under-barrier action of %.3g ħ (quasiclassical limit of the method)", minBarrierAction)
+		return fmt.Sprintf("above the downhill barrier's top or within %.3g ħ of under-barrier action of it (the method's quasiclassical limit)", minBarrierAction)
 	}
 	return "above the uphill barrier at its interface"
 }

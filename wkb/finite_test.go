@@ -71,11 +71,10 @@ type finiteResult struct {
 // and counts the levels exact confines that the rule does not report, by
 // the rule's reason.
 type finiteGrid struct {
-	res       []finiteResult
-	exact     int
-	refusals  map[string]int
-	extraWKB  int // levels the rule reports beyond exact's
-	maxRefuse float64
+	res      []finiteResult
+	exact    int
+	refusals map[string]int
+	extraWKB int // levels the rule reports beyond exact's
 }
 
 // runFiniteGrid solves every well of the grid at every field with the
