@@ -93,37 +93,44 @@ func airyModLog(x float64) (y, l float64) {
 	return math.Exp(-2*z) / (math.Pi * bs2), sx * sv / su
 }
 
-// airyAiLog returns Ai′(z)/Ai(z) for z ≥ 0, where Ai > 0: from the table,
-// Ai′/Ai = M′/M + θ′ cot θ, on [0, airyHi], and from DLMF 9.7.5–9.7.6
-// beyond. Its z-derivative is z − (Ai′/Ai)² (the Riccati form of
-// Ai″ = z Ai).
-func airyAiLog(z float64) float64 {
+// airyAiLog returns λ = Ai′(z)/Ai(z) for z ≥ 0, where Ai > 0, and its
+// derivative z − λ² (the Riccati form of Ai″ = z Ai): from the table,
+// λ = M′/M + θ′ cot θ, on [0, airyHi], and from DLMF 9.7.5–9.7.6 beyond,
+// λ = −√z V₋/U₋ with U₋ = Σ (−1)^k u_k ζ^(−k) and V₋ likewise, where
+// z − λ² = z (U₋ − V₋)(U₋ + V₋)/U₋² does not cancel.
+func airyAiLog(z float64) (lam, dlam float64) {
 	if z <= airyHi {
 		th, m2, dm2 := airyTabD(z)
-		return (dm2/2 - 1/(math.Pi*math.Tan(th))) / m2
+		lam = (dm2/2 - 1/(math.Pi*math.Tan(th))) / m2
+		return lam, z - lam*lam
 	}
-	// −√z V₋/U₋ with U₋ = Σ (−1)^k u_k ζ^(−k), V₋ likewise (DLMF 9.7.5,
-	// 9.7.6): ζ ≥ 27.7 here, so a dozen terms reach rounding.
+	// ζ ≥ 27.7 here, so a dozen terms reach rounding.
 	c := airyCoefs()
 	s := math.Sqrt(z)
 	r := -1.5 / (z * s)
-	u, v, p := 1.0, 1.0, 1.0
+	u, v, d, p := 1.0, 1.0, 0.0, 1.0
 	for k := 1; k < airyTerms; k++ {
 		p *= r
 		tu, tv := c.u[k]*p, c.v[k]*p
 		u += tu
 		v += tv
+		d += tu - tv
 		if math.Abs(tu)+math.Abs(tv) < 1e-18 {
 			break
 		}
 	}
-	return -s * v / u
+	return -s * v / u, z * d * (u + v) / (u * u)
 }
 
 // airyWall returns, at any real x, the connection phase χ(x) = θ(x) − ζ̄(x)
 // of [airyChi] and its derivative, with y = 1/(πM²) and l = M′/M of
-// [airyModLog], from one evaluation.
-func airyWall(x float64) (chi, dchi, y, l float64) {
+// [airyModLog] and dl = dl/dx = x + y² − l² (from M″ = xM + 1/(π²M³),
+// DLMF 9.8.14 with 9.2.1), from one evaluation. dl is formed without the
+// cancellation of its terms where x is large: far on the allowed side
+// x + y² = t (1 − (P² + Q²)²)/(P² + Q²)² with t = −x, and on the
+// forbidden side x − l² = x (U − V)(U + V)/U² with l = √x V/U (DLMF
+// 9.7.7–9.7.8).
+func airyWall(x float64) (chi, dchi, y, l, dl float64) {
 	switch {
 	case x < airyLo:
 		t := -x
@@ -135,23 +142,39 @@ func airyWall(x float64) (chi, dchi, y, l float64) {
 		// θ′ + √t = √t (P² + Q² − 1)/(P² + Q²), with P² + Q² − 1 formed
 		// from P − 1 so that it does not cancel.
 		pm := p - 1
+		pq1 := pm*(p+1) + q*q // P² + Q² − 1
 		// |Q/P| ≈ u₁/ζ < 1.7e-3 for ζ ≥ 42.7: four terms of the
 		// arctangent series reach 1e-26 (as in airyNeg).
 		v := q / p
 		v2 := v * v
 		beta := v * (1 - v2*(1.0/3-v2*(1.0/5-v2/7)))
-		return math.Pi/4 - beta, st * (pm*(p+1) + q*q) / pq, st / pq, st * (q*r - p*s) / pq
+		y = st / pq
+		l = st * (q*r - p*s) / pq
+		return math.Pi/4 - beta, st * pq1 / pq, y, l, -t*pq1*(pq+1)/(pq*pq) - l*l
 	case x <= airyHi:
 		th, m2, dm2 := airyTabD(x)
 		y = 1 / (math.Pi * m2)
 		l = dm2 / (2 * m2)
+		dl = x + y*y - l*l
 		if x < 0 {
 			s := math.Sqrt(-x)
-			return th - 2.0/3*(-x)*s, s - y, y, l
+			return th - 2.0/3*(-x)*s, s - y, y, l, dl
 		}
-		return th, -y, y, l
+		return th, -y, y, l, dl
 	}
 	chi, dchi = airyChi(x)
 	y, l = airyModLog(x)
-	return chi, dchi, y, l
+	c := airyCoefs()
+	zeta := 2.0 / 3 * x * math.Sqrt(x)
+	u, v := asymSum(&c.u, 1/zeta), asymSum(&c.v, 1/zeta)
+	d, p := 0.0, 1.0 // U − V = Σ (u_k − v_k) ζ^(−k), all terms positive
+	for k := 1; k < airyTerms; k++ {
+		p /= zeta
+		t := (c.u[k] - c.v[k]) * p
+		d += t
+		if t < 1e-18*d {
+			break
+		}
+	}
+	return chi, dchi, y, l, x*d*(u+v)/(u*u) + y*y
 }

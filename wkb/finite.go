@@ -50,6 +50,12 @@ const (
 	gammaFloor = 1e-300
 )
 
+// maxAiryArg caps a barrier's Airy coordinate at its interface: past it
+// (barriers up to 1e300 E₁ at fields down to 1e-150) the barrier is a
+// hard wall to every digit, its step phase below 1e-50 and its Gamow
+// factor e^(−1e150), and the cap keeps the arithmetic finite.
+const maxAiryArg = 1e100
+
 // well is a single finite well folded to f ≥ 0, with the constants of the
 // connection rule.
 type well struct {
@@ -187,13 +193,13 @@ type downhill struct {
 // digits, its Airy modulus and phase at x₀ = −e/ε_A.
 func (w *well) wellSide(e float64) (d downhill) {
 	x0 := -e * w.invEa
-	var dchi float64
-	d.chi0, dchi, d.y, d.l = airyWall(x0)
+	var dchi, dldx float64
+	d.chi0, dchi, d.y, d.l, dldx = airyWall(x0)
 	// dx₀/de = −1/ε_A, θ″ = −2θ′ l, l′ = x + θ′² − l² (from w″ = x w,
 	// DLMF 9.2.1).
 	d.dchi0 = -dchi * w.invEa
 	d.dy = 2 * d.y * d.l * w.invEa
-	d.dx = (x0 + d.y*d.y - d.l*d.l) * w.invEa // −dl/de, completed by the barrier side
+	d.dx = dldx * w.invEa // −dl/de, completed by the barrier side
 	return d
 }
 
@@ -271,7 +277,7 @@ func (w *well) eval(e float64) point {
 	f := w.f
 	s, ds := action(f, e)
 	ul := w.vL - e
-	p.zl = w.cL * ul * w.invEa
+	p.zl = min(w.cL*ul*w.invEa, maxAiryArg)
 	p.zetaL = 2.0 / 3 * p.zl * math.Sqrt(p.zl)
 	d := w.withBarrier(w.wellSide(e), p.zl, p.zetaL, -1)
 	p.dh = d
@@ -280,14 +286,14 @@ func (w *well) eval(e float64) point {
 	// Ai″ = z Ai, with dx₁/de = −1/ε_A and dz_R/de = −μ_R^(1/3)/ε_A.
 	x1 := (f - e) * w.invEa
 	p.x1 = x1
-	chi1, dchi1, y1, l1 := airyWall(x1)
-	zr := max(w.cR*(w.vR-e+f)*w.invEa, 0)
-	lam := airyAiLog(zr)
+	chi1, dchi1, y1, l1, dldx1 := airyWall(x1)
+	zr := min(max(w.cR*(w.vR-e+f)*w.invEa, 0), maxAiryArg)
+	lam, dlamdz := airyAiLog(zr)
 	X1 := l1 - w.qR*lam
 	gR := math.Atan2(y1, X1)
 	dy1 := 2 * y1 * l1 * w.invEa
-	dl1 := -(x1 + y1*y1 - l1*l1) * w.invEa
-	dlam := -(zr - lam*lam) * w.cR * w.invEa
+	dl1 := -dldx1 * w.invEa
+	dlam := -dlamdz * w.cR * w.invEa
 	dX1 := dl1 - w.qR*dlam
 	dgR := (X1*dy1 - y1*dX1) / (X1*X1 + y1*y1)
 	p.psi = s + (d.chi0-chi1+gR+d.dL)*(1/math.Pi)
@@ -386,10 +392,23 @@ func (w *well) scanLevels(dst []tiltwell.Level, f float64, k int, plain bool) ([
 		if plain {
 			lv = w.plainLevel(lv, p)
 		}
+		if !finite(lv.Energy, lv.Err, lv.Gamma, lv.GammaErr) {
+			return dst[:0], point{}, fmt.Errorf("wkb: f = %g, n = %d: the finite-well rule lost its accuracy (%+v): %w", f, n, lv, tiltwell.ErrNoConvergence)
+		}
 		dst = append(dst, lv)
 		prev2, prev = prev, p
 	}
 	return dst, prev, nil
+}
+
+// finite reports whether every x is neither NaN nor infinite.
+func finite(xs ...float64) bool {
+	for _, x := range xs {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return false
+		}
+	}
+	return true
 }
 
 // scan finds the levels of the connection rule in increasing order.
@@ -607,15 +626,14 @@ func (w *well) plainE(n int, e0 float64) (e, dpsi float64) {
 	fn := float64(n)
 	f := w.f
 	two := false
-	lo, hi := 0.0, w.vL
-	if f < w.vL {
+	lo, hi := 0.0, min(w.vL, w.vR+f)
+	if f < hi {
 		if p, _ := w.plainPsi(f, true); p <= fn {
 			two, lo = true, f
 		} else {
 			hi = f
 		}
 	}
-	hi = min(hi, w.vR+f)
 	e = min(max(e0, lo), hi)
 	for range 200 {
 		p, d := w.plainPsi(e, two)

@@ -84,9 +84,9 @@ func newFiniteWave(w well, e float64, n int) *finiteWave {
 	fw.sw = f * w.invEa
 	fw.x0, fw.x1 = -e*w.invEa, (f-e)*w.invEa
 	x1 := fw.x1
-	_, _, y1, l1 := airyWall(x1)
-	fw.zR = max(w.cR*(w.vR-e+f)*w.invEa, 0)
-	lam := airyAiLog(fw.zR)
+	_, _, y1, l1, _ := airyWall(x1)
+	fw.zR = min(max(w.cR*(w.vR-e+f)*w.invEa, 0), maxAiryArg)
+	lam, dlam := airyAiLog(fw.zR)
 	X1 := l1 - w.qR*lam
 	switch {
 	case x1 < airyLo:
@@ -101,7 +101,7 @@ func newFiniteWave(w well, e float64, n int) *finiteWave {
 		// y₁ e^(2ζ₁) = 1/(π (Bi e^(−ζ₁))²); the angle is tiny.
 		fw.gt = 1 / (math.Pi * fw.b1 * fw.b1 * X1)
 	}
-	fw.zL = w.cL * (w.vL - e) * w.invEa
+	fw.zL = min(w.cL*(w.vL-e)*w.invEa, maxAiryArg)
 	fw.sL = w.cL * fw.sw
 	fw.sR = w.cR * fw.sw
 	fw.lnMzL = airyLnM(fw.zL)
@@ -109,14 +109,16 @@ func newFiniteWave(w well, e float64, n int) *finiteWave {
 	r0, r1 := fw.raw(0), fw.raw(1)
 	// Norm in units of A².
 	nl := r0 * r0 / fw.sL * tailM(fw.zL)
-	nr := r1 * r1 / fw.sR * tailAi(fw.zR, lam)
+	// ∫_z^∞ Ai² = Ai′² − z Ai² (DLMF 9.11.15 with 9.2.1; from memory):
+	// in units of Ai(z_R)², λ² − z_R = −dλ/dz.
+	nr := r1 * r1 / fw.sR * (-dlam)
 	norm := fw.wellNormSq() + nl + nr
 	fw.amp = 1 / math.Sqrt(norm)
 	if r0 < 0 {
 		fw.amp = -fw.amp
 	}
 	fw.phi0, fw.phi1 = fw.amp*r0, fw.amp*r1
-	fw.lo = -(w.vL-e)/f + fw.leftCut()
+	fw.lo = -fw.leftDepth()
 	fw.hi = 1 + fw.tailLength()
 	return fw
 }
@@ -222,23 +224,40 @@ func (fw *finiteWave) tailLength() float64 {
 	if !(q > 1e-17) {
 		return 0
 	}
+	dz := 0.5 * math.Log(q/1e-17)
+	if fw.zR > 1e6 {
+		return dz / (math.Sqrt(fw.zR) * fw.sR)
+	}
 	z0 := 2.0 / 3 * fw.zR * math.Sqrt(fw.zR)
-	zh := z0 + 0.5*math.Log(q/1e-17)
-	z := math.Cbrt(1.5 * zh * 1.5 * zh)
+	z := math.Cbrt(1.5 * (z0 + dz) * 1.5 * (z0 + dz))
 	return (z - fw.zR) / fw.sR
 }
 
-// leftCut returns how far inside the downhill turning point the support
-// may start: where the tail between them holds less than 1e-17, from
-// ∫₀^z M² dz′ ≈ M(z)²/(2√z); 0 if it holds more.
-func (fw *finiteWave) leftCut() float64 {
+// leftDepth returns how far the support reaches into the downhill
+// barrier: to its turning point, or, for a narrow level, to where the tail
+// beyond holds less than 1e-17, from ∫₀^z M² dz′ ≈ M(z)²/(2√z).
+func (fw *finiteWave) leftDepth() float64 {
 	q := fw.phi0 * fw.phi0 / (2 * fw.sL * math.Sqrt(max(fw.zL, 0.1)))
-	zL := 2.0 / 3 * fw.zL * math.Sqrt(fw.zL)
-	zc := zL - 0.5*math.Log(max(q, 1e-300)/1e-17)
-	if !(zc > 0) {
+	return depth(fw.zL, fw.sL, 0.5*math.Log(max(q, 1e-300)/1e-17))
+}
+
+// depth returns the distance, in ξ, from z (the Airy coordinate at an
+// interface, s its scale dz/dξ) to the point where ζ is less by dz, or
+// to z = 0 if ζ(z) ≤ dz; dz ≤ 0 gives 0. For large z it uses
+// ζ(z) − ζ(z − d) ≈ √z d, without cancellation.
+func depth(z, s, dz float64) float64 {
+	if !(dz > 0) {
 		return 0
 	}
-	return math.Cbrt(1.5*zc*1.5*zc) / fw.sL
+	zeta := 2.0 / 3 * z * math.Sqrt(z)
+	if zeta <= dz {
+		return z / s
+	}
+	if z > 1e6 {
+		return dz / (math.Sqrt(z) * s)
+	}
+	zc := zeta - dz
+	return (z - math.Cbrt(1.5*zc*1.5*zc)) / s
 }
 
 // zetaDiff returns ζ(z + d) − ζ(z), ζ = (2/3) z^(3/2), for z, z + d ≥ 0,
@@ -325,30 +344,6 @@ func tailM(z float64) float64 {
 		t := (c.u[k] - c.v[k]) * p
 		d += t
 		if t < 1e-18*d {
-			break
-		}
-	}
-	return z * d * (u + v) / (u * u)
-}
-
-// tailAi returns ∫_z^∞ Ai² dz′/Ai(z)² = λ² − z for z ≥ 0, λ = Ai′/Ai,
-// from ∫ Ai² = z Ai² − Ai′²; past airyHi, from the series with
-// λ = −√z V₋/U₋ (DLMF 9.7.5–9.7.6): z (V₋ − U₋)(V₋ + U₋)/U₋².
-func tailAi(z, lam float64) float64 {
-	if z <= airyHi {
-		return lam*lam - z
-	}
-	c := airyCoefs()
-	s := math.Sqrt(z)
-	zeta := 2.0 / 3 * z * s
-	u, v := asymSum(&c.u, -1/zeta), asymSum(&c.v, -1/zeta)
-	d := 0.0 // V₋ − U₋ = Σ (−1)^k (v_k − u_k) ζ^(−k)
-	p := 1.0
-	for k := 1; k < airyTerms; k++ {
-		p /= -zeta
-		t := (c.v[k] - c.u[k]) * p
-		d += t
-		if math.Abs(t) < 1e-18*math.Abs(d) {
 			break
 		}
 	}
