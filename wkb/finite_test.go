@@ -504,10 +504,10 @@ func TestFiniteContinuous(t *testing.T) {
 				}
 				return w, at
 			}
-			w1, at := largest(4e-3)
-			w2, _ := largest(1e-3)
-			if w1/w2 < 3 || w1 > 2*4e-3 {
-				t.Errorf("%+v n=%d: largest steps of η %.3g and %.3g for steps of f 4e-3 and 1e-3 (near f = %.4g)", c, n, w1, w2, at)
+			w1, at := largest(1e-2)
+			w2, _ := largest(2.5e-3)
+			if w1/w2 < 3 || w1 > 2*1e-2 {
+				t.Errorf("%+v n=%d: largest steps of η %.3g and %.3g for steps of f 1e-2 and 2.5e-3 (near f = %.4g)", c, n, w1, w2, at)
 			}
 			t.Logf("%+v n=%d: largest steps of η %.3g, %.3g (ratio %.3g), near f = %.4g", c, n, w1, w2, w1/w2, at)
 		}
