@@ -208,10 +208,13 @@
 // none either (worst 9.8× for energies, 11.4× for 2 of 1174 widths). The
 // plain rule's estimates never undershoot on the grid but reach 36×
 // (energies) and 56× (widths) where it lands near the truth by chance.
-// Levels cost 0.35 µs at f = 0 and 1.5 to 4.5 µs under a field, against
-// exact.Solver's 0.7 to 20 µs in the same run (BenchmarkFiniteLevels):
-// 2 to 5 times faster on the shallow demo well (v = 4.3, μ = 1.37), about
-// as fast on a deep one (v = 50).
+// In one run of BenchmarkFiniteLevels (on a shared, loaded machine, where
+// the hard-wall rule took 0.4 µs a level) a level cost 0.4 µs at f = 0 and
+// 1.1 to 3.2 µs under a field, against exact.Solver's 0.6 µs and 2.1 to
+// 10 µs: up to 5 times faster on the shallow demo well (v = 4.3,
+// μ = 1.37) and for several levels of a deep one (v = 50), about alike
+// for a single level of the deep well at weak field. Levels does not
+// allocate.
 //
 // Wavefunctions cover the whole line: the uniform Airy solution in the
 // well, φ(0) M_b(z)/M_b(z_L) in the downhill barrier (the modulus of the
