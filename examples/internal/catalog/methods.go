@@ -71,6 +71,9 @@ func WithStack(m Method, st tiltwell.Stack) (Method, error) {
 	case perturb.Solver:
 		s.Stack = st
 		m.Solver = s
+	case wkb.Solver:
+		s.Stack = st
+		m.Solver = s
 	default:
 		return Method{}, fmt.Errorf("method %s does not solve finite barriers: %w", m.Name, errors.ErrUnsupported)
 	}
