@@ -9,18 +9,6 @@ import (
 	"github.com/tiltwell/tiltwell/variational"
 )
 
-// benchWell is the finite well of the benchmarks: the demo electron well
-// of [tiltwell.DemoGaAsWell]-like numbers (invented), barriers 4.3 E₁
-// high with a barrier mass ratio 1.37, which confines three levels at
-// f = 0, two at f = 1 and one at f = 3.
-var benchWell = func() tiltwell.Stack {
-	s, err := tiltwell.FiniteWell(4.3, 1.37)
-	if err != nil {
-		panic(err)
-	}
-	return s
-}()
-
 // benchDeep is a deeper finite well (barriers 20 E₁, mass ratio 1.37, also
 // invented), which confines five levels at f ≤ 3.
 var benchDeep = func() tiltwell.Stack {
