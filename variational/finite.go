@@ -30,7 +30,7 @@ func (s Solver) checkStack() error {
 		return fmt.Errorf("variational: the sine family needs infinite walls, not the stack %v: %w", s.Stack, errors.ErrUnsupported)
 	}
 	if _, err := squarewell.FromStack(s.Stack); err != nil {
-		return fmt.Errorf("variational: stack %v: only a single finite well with both barriers above it is supported (%w): %w", s.Stack, err, errors.ErrUnsupported)
+		return fmt.Errorf("variational: stack %v: only a single finite well with both barriers above it is supported (%v): %w", s.Stack, err, errors.ErrUnsupported)
 	}
 	return nil
 }

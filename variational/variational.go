@@ -149,7 +149,9 @@ type Bracket struct {
 	// Bound is Rigorous when Lower is Temple's bound with a proven α (or
 	// the floor max(n² − |f|/2, −|f|/2 + |a_n|(|f|/π)^(2/3))) and Estimate
 	// when Temple's condition holds only with an estimated α, or Lower is
-	// Weinstein's E − σ (see the package documentation).
+	// Weinstein's E − σ (see the package documentation). On a finite well
+	// it is Rigorous at zero field (Kato's inclusion) and Estimate under a
+	// field, where the level is a resonance.
 	Bound tiltwell.Bound
 	// Tilt is the optimal β of the trial space for this level, with the
 	// sign of the field (β(−f) = −β(f)). Pass the Brackets of a nearby
