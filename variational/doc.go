@@ -158,14 +158,17 @@
 // well's slope), with the interval (α′, α) that holds the level alone
 // taken from the phase condition k + δ_L(k) + δ_R(k) = nπ without
 // solving it (the phases rise with k and lie in [0, π/2)). The brackets
-// are 1e-15 to 1e-12 wide (TestZeroFieldBracket); levels beyond the well's
+// are a few ulps wide for ordinary wells and up to 7e-12 for barriers of
+// 1e12 E₁ (the matched tail inherits the residual of the computed root);
+// beyond about 1e30 E₁ no matched state can be formed in float64 and the
+// bracket is an estimate (TestZeroFieldBracket). Levels beyond the well's
 // bound count come back with a [*tiltwell.ConfinedError].
 //
 // Poly under a field (this package's own design). Only the well is
 // expanded, in every polynomial of degree ≤ d + 1 times the envelope
 // e^(−β(ξ−ξr)) (d bubbles ξ(1−ξ)(2ξ−1)^j e^(−βξ) and two interface
 // functions; β the trend of the infinite-well optimum, not searched,
-// d = min(2k + Extra − 2 + ⌈0.8 f^(1/3)⌉, 40)). Each barrier enters through
+// d = min(2k + Extra − 2 + ⌈0.8 f^(1/3)⌉, 40), at least 12). Each barrier enters through
 // the logarithmic derivative Λ(η) of its exact real solution at the
 // interface (Ai uphill; downhill the modulus M of the outgoing wave
 // Ai − iBi, whose logarithmic derivative is the real part of the outgoing
