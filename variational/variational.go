@@ -68,6 +68,12 @@ const MaxLevels = 12
 // MaxField is the largest |f| the Poly and Tilt families accept.
 const MaxField = 1e4
 
+// FiniteMaxField is the largest |f| the Poly and Tilt families accept on a
+// finite Stack: beyond it the levels of the 40-function well space are not
+// yet converged for the upper levels, and the convergence estimate was
+// seen to fall short (at f = 1e4).
+const FiniteMaxField = 1e3
+
 // SineMaxField is the largest |f| the Sine family accepts: beyond it its
 // tilt search runs to the largest tilt the quadrature rules resolve, and
 // its brackets are wider than 1e-3 anyway.
@@ -87,6 +93,15 @@ const MaxExtra = maxRitzDim
 //
 //	Energy − Err ≤ η_n ≤ Energy.
 //
+// On a finite well (Stack a three-layer stack) the zero-field levels are
+// bracketed the same way, proven, by Kato's inclusion; under a field the
+// Poly family reports the real variational level and the Tilt family the
+// one-parameter stationary value, each with an estimated Err that includes
+// the escape shift, Gamma = 0 and the escape width it leaves out in
+// GammaErr (see the package documentation, "Finite wells"). Other stacks,
+// and the Sine family on a finite well, give an error wrapping
+// [errors.ErrUnsupported].
+//
 // The zero value uses the Poly family with its default size. A Solver holds
 // configuration only and is safe for concurrent use.
 type Solver struct {
@@ -95,8 +110,18 @@ type Solver struct {
 	// Extra sets the Ritz dimension of the Poly and Sine families: level
 	// n uses min(2n + Extra, 40) functions. If Extra is 0 it is defaulted
 	// to 16; it must lie in 0..MaxExtra (other values give an error
-	// wrapping [tiltwell.ErrUnits]). Tilt ignores it.
+	// wrapping [tiltwell.ErrUnits]). Tilt ignores it. On a finite Stack
+	// (at f ≠ 0) the Poly space of a call for k levels has
+	// min(2k + Extra − 2, 40) well functions beyond the two interface
+	// functions (see the package documentation).
 	Extra int
+	// Stack is the layer structure; the zero value is the well between
+	// infinitely high walls. The Poly and Tilt families also solve a
+	// single finite well (a three-layer stack with both barriers above
+	// the well, see the package documentation); other stacks, and the
+	// Sine family on any finite stack, give an error wrapping
+	// [errors.ErrUnsupported].
+	Stack tiltwell.Stack
 }
 
 var (
@@ -109,26 +134,42 @@ var (
 type Bracket struct {
 	// N is the level number, 1 for the ground level.
 	N int
-	// Lower and Upper enclose the level: Lower ≤ η_N ≤ Upper. Upper is a
-	// Rayleigh–Ritz value and is always a proven upper bound (up to
+	// Lower and Upper enclose the level: Lower ≤ η_N ≤ Upper. For
+	// infinite walls, and at zero field, Upper is a Rayleigh–Ritz value
+	// (or Kato's upper end) and is always a proven upper bound (up to
 	// floating-point rounding); Lower is proven when Bound is
-	// [tiltwell.Rigorous].
+	// [tiltwell.Rigorous]. On a finite well at f ≠ 0 both are estimates
+	// (see the package documentation).
 	Lower, Upper float64
+	// Energy is the reported level, in [Lower, Upper]: Upper for
+	// infinite walls and at zero field; on a finite well at f ≠ 0 the
+	// family's own stationary value (the fixed point of the Poly space,
+	// or the one-parameter tilt's energy).
+	Energy float64
 	// Bound is Rigorous when Lower is Temple's bound with a proven α (or
 	// the floor max(n² − |f|/2, −|f|/2 + |a_n|(|f|/π)^(2/3))) and Estimate
 	// when Temple's condition holds only with an estimated α, or Lower is
-	// Weinstein's E − σ (see the package documentation).
+	// Weinstein's E − σ (see the package documentation). On a finite well
+	// it is Rigorous at zero field (Kato's inclusion) and Estimate under a
+	// field, where the level is a resonance.
 	Bound tiltwell.Bound
 	// Tilt is the optimal β of the trial space for this level, with the
 	// sign of the field (β(−f) = −β(f)). Pass the Brackets of a nearby
 	// field to [Solver.Brackets] to start the searches from these values.
 	Tilt float64
+	// GammaErr is the estimate of the escape width Γ (in E₁) that the
+	// real variational problem leaves out: 0 for infinite walls and at
+	// zero field, and on a finite well at f ≠ 0 the first-order width of
+	// the level's own trial function with a margin (see the package
+	// documentation).
+	GammaErr float64
 }
 
-// Level returns the bracket as a [tiltwell.Level]: Energy = Upper,
-// Err = Upper − Lower.
+// Level returns the bracket as a [tiltwell.Level]: Energy,
+// Err = max(Upper − Energy, Energy − Lower) (Upper − Lower when Energy is
+// Upper), Gamma = 0 and GammaErr.
 func (b Bracket) Level() tiltwell.Level {
-	return tiltwell.Level{N: b.N, Energy: b.Upper, Err: b.Upper - b.Lower, Bound: b.Bound}
+	return tiltwell.Level{N: b.N, Energy: b.Energy, Err: max(b.Upper-b.Energy, b.Energy-b.Lower), Bound: b.Bound, GammaErr: b.GammaErr}
 }
 
 // Contains reports whether Lower ≤ eta ≤ Upper.
@@ -155,6 +196,12 @@ func (s Solver) check(f float64, k int) error {
 	if s.Family == Sine {
 		maxField = SineMaxField
 	}
+	if !s.Stack.Infinite() {
+		maxField = FiniteMaxField
+	}
+	if err := s.checkStack(); err != nil {
+		return err
+	}
 	return tiltwell.CheckArgs("variational", f, k, s.maxLevels(), maxField)
 }
 
@@ -169,8 +216,12 @@ func (s Solver) dim(n int) int {
 }
 
 // Levels implements [tiltwell.Solver]. Energy is the upper bound of each
-// level's bracket and Err its width (see [Solver.Brackets]). If dst has
-// capacity for k levels, Levels does not allocate.
+// level's bracket and Err its width (see [Solver.Brackets]); on a finite
+// well at f ≠ 0, Energy is the bracket's Energy and Err its larger
+// distance to an end ([Bracket.Level]). When a finite well confines fewer
+// than k levels, Levels returns the confined ones with a
+// [*tiltwell.ConfinedError]. If dst has capacity for k levels, Levels does
+// not allocate.
 //
 // Special cases are:
 //
@@ -180,6 +231,20 @@ func (s Solver) dim(n int) int {
 func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
 	dst = dst[:0]
 	if err := s.check(f, k); err != nil {
+		return dst, err
+	}
+	if !s.Stack.Infinite() {
+		fw := finitePool.Get().(*finiteWork)
+		defer finitePool.Put(fw)
+		br, err := s.finiteBrackets(fw, fw.brackets[:0], f, k, nil)
+		if err != nil {
+			if _, ok := tiltwell.Confined(err); !ok {
+				return dst, err
+			}
+		}
+		for _, b := range br {
+			dst = append(dst, b.Level())
+		}
 		return dst, err
 	}
 	sp := spacePool.Get().(*space)
@@ -197,7 +262,10 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 // Brackets appends the brackets of the lowest k levels at reduced field f
 // to dst[:0] and returns the result. If dst is nil, a new slice is
 // allocated and returned; if it has capacity for k brackets, Brackets does
-// not allocate.
+// not allocate. On a finite well that confines fewer than k levels it
+// returns the confined ones with a [*tiltwell.ConfinedError]; there the
+// Poly family does not search its tilt (warm is ignored) and the Tilt
+// family starts its one-parameter search from warm[0].Tilt.
 //
 // If warm is not nil, warm[i].Tilt (for i < len(warm)) is the starting
 // point of the tilt search for level i+1, as returned by a call at a nearby
@@ -238,6 +306,11 @@ func (s Solver) Brackets(dst []Bracket, f float64, k int, warm []Bracket) ([]Bra
 			return dst, fmt.Errorf("variational: warm[%d].Tilt = %v is not a finite tilt: %w", i, t, tiltwell.ErrUnits)
 		}
 	}
+	if !s.Stack.Infinite() {
+		fw := finitePool.Get().(*finiteWork)
+		defer finitePool.Put(fw)
+		return s.finiteBrackets(fw, dst, f, k, warm)
+	}
 	sp := spacePool.Get().(*space)
 	defer spacePool.Put(sp)
 	return s.brackets(sp, dst, f, k, warm)
@@ -249,13 +322,30 @@ func (s Solver) Brackets(dst []Bracket, f float64, k int, warm []Bracket) ([]Bra
 // field's optimum with a small first step. The saving is modest: a cold
 // search already takes only about seven Ritz evaluations, and the
 // verification of each bracket, which is not shared between fields, costs
-// as much again. If dst is nil, a new slice is allocated and returned.
+// as much again. If dst is nil, a new slice is allocated and returned. On
+// a finite well, a field that confines fewer than k levels ends the sweep:
+// Sweep returns the brackets so far, those of that field included, with
+// its [*tiltwell.ConfinedError].
 func (s Solver) Sweep(dst []Bracket, fs []float64, k int) ([]Bracket, error) {
 	dst = dst[:0]
 	for _, f := range fs {
 		if err := s.check(f, k); err != nil {
 			return dst, err
 		}
+	}
+	if !s.Stack.Infinite() {
+		fw := finitePool.Get().(*finiteWork)
+		defer finitePool.Put(fw)
+		var warm []Bracket
+		for i, f := range fs {
+			out, err := s.finiteBrackets(fw, dst[len(dst):], f, k, warm)
+			dst = append(dst, out...)
+			if err != nil {
+				return dst, err
+			}
+			warm = dst[i*k : (i+1)*k]
+		}
+		return dst, nil
 	}
 	sp := spacePool.Get().(*space)
 	defer spacePool.Put(sp)
@@ -362,6 +452,7 @@ func (s Solver) brackets(sp *space, dst []Bracket, f float64, k int, warm []Brac
 				}
 			}
 		}
+		b.Energy = b.Upper
 		dst[n-1] = b
 		alphaRig2 = alphaRig
 		alphaRig, alphaEst = fl, math.Max(fl, b.Lower)
@@ -441,6 +532,7 @@ func (sp *space) tiltBracket(f, guess float64) Bracket {
 			break
 		}
 	}
+	br.Energy = br.Upper
 	return br
 }
 

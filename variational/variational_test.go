@@ -600,11 +600,20 @@ func FuzzLevels(f *testing.F) {
 	}{{0, 1, 0, 0}, {10, 3, 0, 2}, {-300, 5, 4, -7}, {1e4, 2, 0, 0}, {math.NaN(), 1, 0, 0}, {1, 0, 0, 0}, {1, 13, 0, 0},
 		{1, 1, math.MaxInt, 0}, {1, 2, math.MaxInt - 1, 0}, {3, 1, -5, 0}, {3, 1, 0, math.NaN()}, {3, 2, 0, math.Inf(-1)}, {3, 1, 0, 1e300}} {
 		for fam := range uint8(3) {
-			f.Add(seed.f, seed.k, fam, seed.extra, seed.tilt)
+			f.Add(seed.f, seed.k, fam, seed.extra, seed.tilt, 0.0, 1.0, 0.0, 1.0)
+		}
+	}
+	// Finite wells (barrier heights and masses; a zero left barrier means
+	// infinite walls).
+	for _, w := range [][4]float64{{4.3, 1.37, 4.3, 1.37}, {2, 1, 50, 2}, {1e300, 1e-6, 1e-300, 1e6}, {-1, 1, 5, 1}, {5, 1e6, 5, 1e-6}} {
+		for _, fld := range []float64{0, 1e-300, 0.7, -3, 999, 2e3} {
+			for fam := range uint8(3) {
+				f.Add(fld, 3, fam, 0, 1.0, w[0], w[1], w[2], w[3])
+			}
 		}
 	}
 	ok := func(t *testing.T, err error) {
-		for _, s := range []error{tiltwell.ErrField, tiltwell.ErrLevel, tiltwell.ErrOutOfRange, tiltwell.ErrUnits, tiltwell.ErrNoConvergence} {
+		for _, s := range []error{tiltwell.ErrField, tiltwell.ErrLevel, tiltwell.ErrOutOfRange, tiltwell.ErrUnits, tiltwell.ErrNoConvergence, errors.ErrUnsupported} {
 			if errors.Is(err, s) {
 				return
 			}
@@ -612,18 +621,27 @@ func FuzzLevels(f *testing.F) {
 		t.Fatalf("error %v wraps no root sentinel", err)
 	}
 	finite := func(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
-	f.Fuzz(func(t *testing.T, fld float64, k int, fam uint8, extra int, tilt float64) {
+	f.Fuzz(func(t *testing.T, fld float64, k int, fam uint8, extra int, tilt, vl, ml, vr, mr float64) {
 		s := Solver{Family: Family(fam % 4), Extra: extra}
+		if vl != 0 {
+			st, err := tiltwell.AsymmetricWell(vl, ml, vr, mr)
+			if err != nil {
+				return // not a valid stack: NewStack's own tests cover it
+			}
+			s.Stack = st
+		}
 		if k > 3 {
 			k = k%3 + 1 // keep each run cheap
 		}
 		ls, err := s.Levels(nil, fld, k)
 		if err != nil {
 			ok(t, err)
-			return
+			if _, conf := tiltwell.Confined(err); !conf {
+				return
+			}
 		}
 		for _, l := range ls {
-			if !finite(l.Energy) || !finite(l.Err) || l.Err < 0 {
+			if !finite(l.Energy) || !finite(l.Err) || l.Err < 0 || !finite(l.GammaErr) || l.GammaErr < 0 {
 				t.Fatalf("f=%g: level %+v", fld, l)
 			}
 		}
@@ -632,7 +650,7 @@ func FuzzLevels(f *testing.F) {
 			ok(t, err)
 		}
 		for _, b := range br {
-			if !finite(b.Lower) || !finite(b.Upper) || !finite(b.Tilt) || b.Lower > b.Upper {
+			if !finite(b.Lower) || !finite(b.Upper) || !finite(b.Tilt) || b.Lower > b.Upper || !(b.Lower <= b.Energy && b.Energy <= b.Upper) {
 				t.Fatalf("f=%g warm %g: bracket %+v", fld, tilt, b)
 			}
 		}
@@ -644,7 +662,11 @@ func FuzzLevels(f *testing.F) {
 			ok(t, err)
 			return
 		}
-		for _, x := range []float64{tilt, 0.3, fld} {
+		lo, hi := tiltwell.Support(w)
+		if !finite(lo) || !finite(hi) || lo > hi {
+			t.Fatalf("f=%g: support [%g, %g]", fld, lo, hi)
+		}
+		for _, x := range []float64{tilt, 0.3, fld, lo, hi, vl} {
 			if v := w.At(x); !finite(v) {
 				t.Fatalf("f=%g: φ(%g) = %v", fld, x, v)
 			}
