@@ -215,8 +215,21 @@ type Solver struct {
 	// Breaks lists the points in (0, 1), in increasing order, where the
 	// Potential jumps or has a kink; quadrature panels are split there so
 	// the quadrature converges. It is used only with a Potential and must
-	// not be modified during a call.
+	// not be modified during a call. With a finite Stack they must lie
+	// between the outer interfaces.
 	Breaks []float64
+	// Stack is the layer structure. The zero value is the well with
+	// infinitely high walls, solved as described above; a finite stack is
+	// solved in a box of its untilted states (see the package
+	// documentation, "Finite barriers").
+	Stack tiltwell.Stack
+	// Box, used only with a finite Stack, is how far in units of L the box
+	// reaches beyond each outer interface into the outer layers. If Box is
+	// 0 it is chosen for each field from the decay of the highest level
+	// asked for (at most DefaultBox); on the downhill side under a field
+	// the box never reaches past that level's classical turning point. It
+	// must be finite, 0 ≤ Box ≤ MaxBox.
+	Box float64
 }
 
 var _ tiltwell.WaveSolver = Solver{}
@@ -261,6 +274,9 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 
 // Solve is [Solver.Levels] that also reports the basis size it used.
 func (s Solver) Solve(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, Stats, error) {
+	if !s.Stack.Infinite() {
+		return s.solveStack(dst, f, k)
+	}
 	dst = dst[:0]
 	if err := s.check(f, k); err != nil {
 		return dst, Stats{}, err
@@ -298,6 +314,9 @@ func (s Solver) Solve(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level,
 //
 //	f < 0, no potential: tiltwell.Mirror of the wavefunction at |f|
 func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
+	if !s.Stack.Infinite() {
+		return s.stackWavefunction(f, n)
+	}
 	if err := s.check(f, n); err != nil {
 		return nil, err
 	}
@@ -362,11 +381,19 @@ func (s Solver) check(f float64, k int) error {
 	if !(s.Tol >= 0) || math.IsInf(s.Tol, 0) {
 		return fmt.Errorf("basis: Tol = %v is not a finite non-negative number: %w", s.Tol, tiltwell.ErrUnits)
 	}
+	if !(s.Box >= 0 && s.Box <= MaxBox) {
+		return fmt.Errorf("basis: Box = %v outside [0, %g]: %w", s.Box, float64(MaxBox), tiltwell.ErrUnits)
+	}
 	if s.Potential != nil {
-		prev := 0.0
+		lo, hi := 0.0, 1.0
+		if !s.Stack.Infinite() {
+			lo, hi = s.Stack.Span(1)
+			_, hi = s.Stack.Span(s.Stack.Len() - 2)
+		}
+		prev := lo
 		for i, b := range s.Breaks {
-			if !(b > prev && b < 1) {
-				return fmt.Errorf("basis: Breaks[%d] = %v not increasing inside (0, 1): %w", i, b, tiltwell.ErrUnits)
+			if !(b > prev && b < hi) {
+				return fmt.Errorf("basis: Breaks[%d] = %v not increasing inside (%g, %g): %w", i, b, lo, hi, tiltwell.ErrUnits)
 			}
 			prev = b
 		}
