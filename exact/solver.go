@@ -63,7 +63,11 @@ const eps = 0x1p-52 // float64 machine epsilon, 2.22e-16
 // reference (f = 1e-8…1e4, n ≤ 50, and spot checks to n = 200,
 // |f| = 1e5) the worst error is 2.2e-16·max(1, |η|), Err never undershoots
 // it and is at most about 90 times it.
-type Solver struct{}
+type Solver struct {
+	// Stack is the layer structure; the zero Stack is the well with
+	// infinitely high walls.
+	Stack tiltwell.Stack
+}
 
 var _ tiltwell.WaveSolver = Solver{}
 
@@ -282,7 +286,10 @@ func guess(f, alpha float64, n int, tri, hint, lo, hi float64) float64 {
 // Errors wrap [tiltwell.ErrField] for NaN or infinite f,
 // [tiltwell.ErrLevel] for k < 1 or k > MaxLevels, and
 // [tiltwell.ErrOutOfRange] for |f| > MaxField.
-func (Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	if !s.Stack.Infinite() {
+		return s.stackLevels(dst, f, k)
+	}
 	dst = dst[:0]
 	if err := tiltwell.CheckArgs("exact", f, k, MaxLevels, MaxField); err != nil {
 		return dst, err
@@ -336,7 +343,10 @@ func level(sc wallScale, n int, floor, hint float64) (tiltwell.Level, float64, e
 
 // Level returns level n (1 for the ground level) at reduced field f. Errors
 // as for [Solver.Levels], with n in place of k.
-func (Solver) Level(f float64, n int) (tiltwell.Level, error) {
+func (s Solver) Level(f float64, n int) (tiltwell.Level, error) {
+	if !s.Stack.Infinite() {
+		return s.stackLevel(f, n)
+	}
 	if err := tiltwell.CheckArgs("exact", f, n, MaxLevels, MaxField); err != nil {
 		return tiltwell.Level{}, err
 	}

@@ -83,7 +83,10 @@ func phaseM2(z float64) (theta, m2 float64) {
 //
 //	|f| < 1e-20: φ_n(ξ) = √2 sin(nπξ)
 //	f < 0: φ_n(ξ; f) = (−1)^(n+1) φ_n(1 − ξ; |f|) ([tiltwell.Mirror])
-func (Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
+func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
+	if !s.Stack.Infinite() {
+		return s.stackWavefunction(f, n)
+	}
 	w, err := newWave(f, n)
 	if err != nil {
 		return nil, err
@@ -188,7 +191,10 @@ func gsum(x0, x1 float64) float64 {
 //
 //	|f| < 1e-20: 2 C_n f (second-order perturbation theory)
 //	f < 0: −Dipole(|f|, n)
-func (Solver) Dipole(f float64, n int) (float64, error) {
+func (s Solver) Dipole(f float64, n int) (float64, error) {
+	if !s.Stack.Infinite() {
+		return s.stackDipole(f, n)
+	}
 	if err := tiltwell.CheckArgs("exact", f, n, MaxLevels, MaxField); err != nil {
 		return 0, err
 	}

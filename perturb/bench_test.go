@@ -77,3 +77,46 @@ func BenchmarkWavefunction(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkLevelsFinite times Levels on finite wells beside the exact
+// finite-barrier solver in the same run: the GaAs-like demo electron well
+// (invented demo data) and a deep asymmetric well, at fields inside the
+// levels' limits. "perturb2" is the steady state (the stack's series
+// cached); "perturb2-cold" builds them anew on every call, as for a stack
+// not seen before (each iteration uses a barrier 1e-12 higher).
+func BenchmarkLevelsFinite(b *testing.B) {
+	demo, _ := tiltwell.FiniteWell(4.3, 1.37)
+	deep, _ := tiltwell.AsymmetricWell(50, 1, 30, 2)
+	for _, c := range []struct {
+		name string
+		st   tiltwell.Stack
+		k    int
+		f    float64
+	}{{"demo", demo, 2, 1}, {"deep", deep, 5, 1}, {"deep", deep, 5, -2}} {
+		for _, m := range []string{"perturb2", "perturb2-cold", "exact"} {
+			b.Run(fmt.Sprintf("method=%s/stack=%s/k=%d/f=%g", m, c.name, c.k, c.f), func(b *testing.B) {
+				b.ReportAllocs()
+				var s tiltwell.Solver = perturb.Solver{Stack: c.st}
+				if m == "exact" {
+					s = exact.Solver{Stack: c.st}
+				}
+				l0, _ := c.st.Layer(0)
+				l2, _ := c.st.Layer(2)
+				dst := make([]tiltwell.Level, 0, c.k)
+				dst, _ = s.Levels(dst, c.f, c.k)
+				i := 0
+				for b.Loop() {
+					if m == "perturb2-cold" {
+						i++
+						d := 1e-12 * float64(i)
+						st, _ := tiltwell.AsymmetricWell(l0.Edge+d, l0.Mass, l2.Edge+d, l2.Mass)
+						s = perturb.Solver{Stack: st}
+					}
+					dst, _ = s.Levels(dst, c.f, c.k)
+				}
+				levelsSink = dst
+				b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*c.k), "ns/level")
+			})
+		}
+	}
+}

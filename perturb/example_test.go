@@ -122,3 +122,31 @@ func Example_compareOrders() {
 	// perturb1 η₁ = 1.000000 ± 1.7e-01 (true error 1.7e-01)
 	// perturb2 η₁ = 0.826727 ± 5.1e-03 (true error 5.1e-03)
 }
+
+// A finite well: the GaAs-like demo electron well (invented demo data,
+// barriers of 4.3 E₁ with mass ratio 1.37) at f = 1. Perturbation theory
+// cannot see escape, so Gamma is 0 and GammaErr estimates the missing
+// width.
+func ExampleSolver_finiteWell() {
+	st, err := tiltwell.FiniteWell(4.3, 1.37)
+	if err != nil {
+		log.Fatal(err)
+	}
+	s := perturb.Solver{Stack: st}
+	levels, err := s.Levels(nil, 1, 2)
+	if err != nil {
+		log.Fatal(err)
+	}
+	for _, lv := range levels {
+		lim, _ := s.Limit(lv.N)
+		fmt.Printf("n=%d η=%.5f ± %.1e  Γ=%g ± %.1e  limit %.2f\n", lv.N, lv.Energy, lv.Err, lv.Gamma, lv.GammaErr, lim)
+	}
+	// The third level, 0.05 E₁ below the barrier top, is trusted only at
+	// very weak fields.
+	lim3, _ := s.Limit(3)
+	fmt.Printf("limit of n=3: %.3f\n", lim3)
+	// Output:
+	// n=1 η=0.49978 ± 4.0e-04  Γ=0 ± 1.4e-13  limit 2.58
+	// n=2 η=2.11806 ± 1.2e-03  Γ=0 ± 2.8e-05  limit 1.25
+	// limit of n=3: 0.005
+}

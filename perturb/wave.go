@@ -20,20 +20,31 @@ import (
 // wavefunction by O(f²) in norm. The sign follows φ_n′(0) > 0:
 // ψ_n′(0) = √2 (nπ + fπ/(8n))/√(1 + f² s_n).
 //
+// On a finite well the wavefunction is, in the same way,
+// (φ₀ + f φ₁)/√(1 + f² ‖φ₁‖²) over the whole line, with φ₀ the zero-field
+// state and φ₁ the Dalgarno–Lewis first-order state (closed form in each
+// layer, see the package documentation); it implements [tiltwell.Spread],
+// its Support holding all but 1e-16 of ∫ψ², and φ(0) > 0 at the first
+// interface.
+//
 // Errors are as for [Solver.Levels] with n in place of k; the limit is that
 // of Order 2 for level n, and beyond it the wavefunction is still returned
 // with the error.
 //
 // Special cases are:
 //
-//	f = 0: √2 sin(nπξ) (exact)
-//	f < 0: [tiltwell.Mirror] of the wavefunction at −f
+//	f = 0: √2 sin(nπξ) (exact); on a finite well the zero-field state
+//	f < 0: [tiltwell.Mirror] of the wavefunction at −f (on a finite well, of
+//	  the mirrored stack)
 func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	if _, err := s.order(); err != nil {
 		return nil, err
 	}
 	if err := tiltwell.CheckArgs("perturb", f, n, MaxLevels, MaxField); err != nil {
 		return nil, err
+	}
+	if !s.Stack.Infinite() {
+		return s.waveStack(f, n)
 	}
 	af, mir := tiltwell.Fold(f)
 	nf := float64(n)

@@ -1,0 +1,5 @@
+//go:build race
+
+package bigstack
+
+const raceEnabled = true
