@@ -381,6 +381,9 @@ func (s Solver) check(f float64, k int) error {
 	if !(s.Tol >= 0) || math.IsInf(s.Tol, 0) {
 		return fmt.Errorf("basis: Tol = %v is not a finite non-negative number: %w", s.Tol, tiltwell.ErrUnits)
 	}
+	if s.Size == 1 && !s.Stack.Infinite() {
+		return fmt.Errorf("basis: Size = 1 with a finite Stack, which needs at least 2 states: %w", tiltwell.ErrUnits)
+	}
 	if !(s.Box >= 0 && s.Box <= MaxBox) {
 		return fmt.Errorf("basis: Box = %v outside [0, %g]: %w", s.Box, float64(MaxBox), tiltwell.ErrUnits)
 	}

@@ -140,6 +140,18 @@ func (w *work) ritz(g *geometry, N, k int) error {
 // w.fw.out and returns how many are confined (and why the next is not).
 func (s Solver) stackRun(w *work, g *geometry, k int) (st Stats, confined int, why string, err error) {
 	fw := &w.fw
+	// Every level lies above the lowest band edge of the inner layers
+	// (with the field; a potential can lower it, so not with one):
+	// below the ceiling there is then no room for one.
+	if g.pot == nil {
+		lowest := math.Inf(1)
+		for i, l := range g.inner {
+			lowest = min(lowest, l.Edge+g.f*(g.innerLo[i]-0.5))
+		}
+		if !(lowest < g.ceiling) {
+			return st, 0, "the band edges leave no room below the barrier", nil
+		}
+	}
 	if g.f == 0 && g.pot == nil {
 		return s.zeroField(w, g, k)
 	}
@@ -147,6 +159,7 @@ func (s Solver) stackRun(w *work, g *geometry, k int) (st Stats, confined int, w
 	if tol == 0 {
 		tol = DefaultTol
 	}
+	fw.stale = false
 	solve := func(N int) error {
 		if err := fw.buildBasis(g, N); err != nil {
 			return err
@@ -382,7 +395,16 @@ func rootRounding(segs []seg, e float64) float64 {
 // geometryFor returns the folded geometry of the Solver's stack at the
 // field f.
 func (s Solver) geometryFor(w *work, f float64) geometry {
-	st, af, mir := s.Stack.Fold(f)
+	// tiltwell.Stack.Fold, with the mirrored stack kept in the workspace
+	// (Mirror allocates) while the Solver's stack is the same.
+	af, mir := tiltwell.Fold(f)
+	st := s.Stack
+	if mir {
+		if !w.fw.mirrorOf.Equal(s.Stack) || w.fw.mirrorOf.Infinite() {
+			w.fw.mirrorOf, w.fw.mirrored = s.Stack, s.Stack.Mirror()
+		}
+		st = w.fw.mirrored
+	}
 	g := w.fw.newGeometry(st, af)
 	g.pot, g.mirror = s.Potential, mir
 	g.userBox = s.Box

@@ -79,6 +79,16 @@ func (s Solver) stackWavefunction(f float64, n int) (tiltwell.Wavefunction, erro
 		}
 	} else {
 		N := fw.ns
+		if fw.stale {
+			// A second basis measured the wall's error after this one:
+			// solve again for the vectors.
+			if err := fw.buildBasis(&g, N); err != nil {
+				return nil, err
+			}
+			if err := w.ritz(&g, N, n); err != nil {
+				return nil, err
+			}
+		}
 		wave.reps = append([]rep(nil), fw.reps[:N*ns]...)
 		wave.c = make([]float64, N)
 		psi0, nrm := 0.0, 0.0

@@ -238,8 +238,10 @@ func (o *side) dReal(eta float64) (d, lnQ, chi, eps float64, ok bool) {
 }
 
 // maxComplexZ bounds the Airy arguments of the complex wall equation
-// (Amos' unscaled functions overflow near |z| = 100).
-const maxComplexZ = 40
+// (airy.Complex sums its series there without allocating; beyond,
+// Γ < e^(−(4/3)·6^(3/2)) ≈ 3e-9 relative and the first-order width is
+// exact to rounding).
+const maxComplexZ = airy.MaxComplex
 
 // dComplex returns D at a complex level: the outgoing wave on the
 // downhill side, the decaying Ai on the other. Beyond maxComplexZ (an

@@ -16,15 +16,18 @@
 //   - MinZ ≤ z ≤ 1: the Maclaurin series DLMF 9.4.1–9.4.4 (Ai = c₁f − c₂g,
 //     Bi = √3(c₁f + c₂g), c₁ = Ai(0), c₂ = −Ai′(0), DLMF 9.2.3–9.2.4);
 //   - 1 < z < 9: Bi and Bi′ by the same series, whose terms are all
-//     positive there, so nothing cancels; Ai and Ai′ from gonum's
-//     mathext.AiryAi (D. E. Amos, ACM TOMS 12, 265 (1986)), where the
-//     series would cancel;
+//     positive there, so nothing cancels; Ai and Ai′, where the series
+//     would cancel, by a Taylor step of Ai″ = zAi (DLMF 9.2.1) from a
+//     table at spacing 1/8, built once by the same steps taken downwards
+//     from z = 9 (Ai grows that way, so the integration is stable);
 //   - z ≥ 9 (ζ ≥ 18): the asymptotic expansions DLMF 9.7.5–9.7.8, summed
 //     to their smallest term, which is below e^(−2ζ) ≤ 3e-16 relative.
 package airy
 
 import (
 	"math"
+	"math/cmplx"
+	"sync"
 
 	"gonum.org/v1/gonum/mathext"
 )
@@ -67,9 +70,7 @@ func Scaled(z float64) (ai, aip, bi, bip, zeta float64) {
 		ai = c1*f - c2*g
 		aip = c1*fp - c2*gp
 	} else {
-		zc := complex(z, 0)
-		ai = real(mathext.AiryAi(zc))
-		aip = real(mathext.AiryAiDeriv(zc))
+		ai, aip = aiTable(z)
 	}
 	if z > 0 {
 		zeta = 2.0 / 3 * z * math.Sqrt(z)
@@ -78,6 +79,54 @@ func Scaled(z float64) (ai, aip, bi, bip, zeta float64) {
 		bi, bip = bi/e, bip/e
 	}
 	return ai, aip, bi, bip, zeta
+}
+
+// tableStep is the spacing of the Ai table on [seriesMax, asymMin].
+const tableStep = 0.125
+
+// aiNodes holds Ai and Ai′ at seriesMax + i·tableStep, i = 0..64.
+var aiNodes = sync.OnceValue(func() (t [65][2]float64) {
+	n := len(t) - 1
+	a, ap, _, _, zeta := asymptotic(asymMin)
+	e := math.Exp(-zeta)
+	t[n] = [2]float64{a * e, ap * e}
+	for i := n - 1; i >= 0; i-- {
+		z0 := seriesMax + float64(i+1)*tableStep
+		t[i][0], t[i][1] = taylor(z0, t[i+1][0], t[i+1][1], -tableStep)
+	}
+	return t
+})
+
+// aiTable returns Ai(z) and Ai′(z) for seriesMax < z < asymMin by one
+// Taylor step from the nearest table node.
+func aiTable(z float64) (ai, aip float64) {
+	t := aiNodes()
+	i := int(math.Round((z - seriesMax) / tableStep))
+	i = min(max(i, 0), len(t)-1)
+	z0 := seriesMax + float64(i)*tableStep
+	return taylor(z0, t[i][0], t[i][1], z-z0)
+}
+
+// taylor carries a solution of y″ = zy from z0 (y, y′) to z0 + h by its
+// Taylor series, (k+2)(k+1)c_(k+2) = z0 c_k + c_(k−1) (DLMF 9.2.1 about
+// z0), summed until the terms fall below 1e-18 of the sum (|h| ≤ 1/8
+// here: about 20 terms).
+func taylor(z0, y, yp, h float64) (float64, float64) {
+	cm, c0, c1 := 0.0, y, yp // c_(k−1), c_k, c_(k+1)
+	hk := 1.0                // h^k
+	sum, dsum := c0, 0.0
+	for k := 0; k < 80; k++ {
+		// Add c_(k+1) h^(k+1) and its derivative term.
+		dsum += float64(k+1) * c1 * hk
+		hk *= h
+		sum += c1 * hk
+		c2 := (z0*c0 + cm) / (float64(k+2) * float64(k+1))
+		cm, c0, c1 = c0, c1, c2
+		if k > 4 && math.Abs(c1*hk*h) <= 1e-18*math.Abs(sum) && math.Abs(c0*hk) <= 1e-18*math.Abs(sum)+1e-300 {
+			break
+		}
+	}
+	return sum, dsum
 }
 
 // maclaurin returns the series f(z), f′(z), g(z), g′(z) of DLMF 9.4.1–9.4.4:
@@ -158,15 +207,23 @@ func asymptotic(z float64) (ai, aip, bi, bip, zeta float64) {
 	return ai, aip, bi, bip, zeta
 }
 
-// Complex returns Ai, Ai′, Bi and Bi′ at a complex z, unscaled: Ai and Ai′
-// from gonum's mathext.AiryAi and AiryAiDeriv (Amos' algorithm), Bi and
-// Bi′ by DLMF 9.2.10,
-//
-//	Bi(z) = e^(πi/6) Ai(zω) + e^(−πi/6) Ai(zω̄),   ω = e^(2πi/3),
-//
-// and its derivative, Bi′(z) = e^(5πi/6) Ai′(zω) + e^(−5πi/6) Ai′(zω̄). It is
-// meant for moderate |z| (the values overflow beyond |z| ≈ 100).
+// MaxComplex is the largest |z| for which Complex is meant: its
+// Maclaurin sums lose about e^(2ζ) (ζ = (2/3)|z|^(3/2)) to cancellation,
+// 1e-10 of Ai at |z| = 6.
+const MaxComplex = 6
+
+// Complex returns Ai, Ai′, Bi and Bi′ at a complex z with |z| ≤ MaxComplex
+// by the Maclaurin series DLMF 9.4.1–9.4.4 (complex arithmetic, no
+// allocation); beyond, by gonum's mathext.AiryAi and AiryAiDeriv (D. E.
+// Amos, ACM TOMS 12, 265 (1986)) with Bi from DLMF 9.2.10,
+// Bi(z) = e^(πi/6) Ai(zω) + e^(−πi/6) Ai(zω̄), ω = e^(2πi/3), and its
+// derivative. The values are unscaled.
 func Complex(z complex128) (ai, aip, bi, bip complex128) {
+	if cmplx.Abs(z) <= MaxComplex {
+		f, fp, g, gp := maclaurinC(z)
+		k1, k2, r3 := complex(c1, 0), complex(c2, 0), complex(math.Sqrt(3), 0)
+		return k1*f - k2*g, k1*fp - k2*gp, r3 * (k1*f + k2*g), r3 * (k1*fp + k2*gp)
+	}
 	w := complex(-0.5, math.Sqrt(3)/2)
 	wc := complex(-0.5, -math.Sqrt(3)/2)
 	e6 := complex(math.Sqrt(3)/2, 0.5)
@@ -177,4 +234,27 @@ func Complex(z complex128) (ai, aip, bi, bip complex128) {
 	bi = e6*mathext.AiryAi(z*w) + e6c*mathext.AiryAi(z*wc)
 	bip = e56*mathext.AiryAiDeriv(z*w) + e56c*mathext.AiryAiDeriv(z*wc)
 	return ai, aip, bi, bip
+}
+
+// maclaurinC is maclaurin in complex arithmetic.
+func maclaurinC(z complex128) (f, fp, g, gp complex128) {
+	z3 := z * z * z
+	tf, tg := complex(1, 0), z
+	f, g = tf, tg
+	fp, gp = 0, 1
+	for k := 1; k < 200; k++ {
+		fk := float64(3 * k)
+		tf *= z3 / complex((fk-1)*fk, 0)
+		tg *= z3 / complex(fk*(fk+1), 0)
+		f += tf
+		g += tg
+		if z != 0 {
+			fp += complex(fk, 0) * tf / z
+			gp += complex(fk+1, 0) * tg / z
+		}
+		if cmplx.Abs(tf) <= 1e-18*cmplx.Abs(f) && cmplx.Abs(tg) <= 1e-18*cmplx.Abs(g) {
+			break
+		}
+	}
+	return f, fp, g, gp
 }

@@ -164,10 +164,19 @@ func TestComplex(t *testing.T) {
 			}
 		}
 	}
-	for _, z := range []complex128{complex(1, 1), complex(-1.5, 0.3), complex(4, -0.5), complex(0.2, -2)} {
+	// Off the axis: the Wronskian, to the cancellation the documentation
+	// states (about u·e^(2ζ), ζ = (2/3)|z|^(3/2)), and gonum's Amos
+	// evaluation of Ai, Ai′.
+	for _, z := range []complex128{complex(1, 1), complex(-1.5, 0.3), complex(4, -0.5), complex(0.2, -2), complex(-5, 3), complex(5.9, 0.5), complex(7, -1)} {
 		ai, aip, bi, bip := Complex(z)
-		if w := (ai*bip - aip*bi) * math.Pi; cmplx.Abs(w-1) > 1e-13 {
+		r := cmplx.Abs(z)
+		tol := 1e-14 * math.Exp(4.0/3*r*math.Sqrt(r))
+		if w := (ai*bip - aip*bi) * math.Pi; cmplx.Abs(w-1) > tol {
 			t.Errorf("z = %v: π·W{Ai, Bi} = %v, want 1 (DLMF 9.2.7)", z, w)
+		}
+		ga, gap := mathext.AiryAi(z), mathext.AiryAiDeriv(z)
+		if cmplx.Abs(ai-ga) > tol*cmplx.Abs(ga)+1e-14 || cmplx.Abs(aip-gap) > tol*cmplx.Abs(gap)+1e-14 {
+			t.Errorf("z = %v: Ai %v Ai′ %v, Amos %v %v", z, ai, aip, ga, gap)
 		}
 	}
 }
