@@ -29,7 +29,10 @@ const (
 )
 
 // Solver is the Rayleigh–Ritz solution of the tilted well in the N lowest
-// sine states χ_m = √2 sin(mπξ). It implements [tiltwell.WaveSolver]. A
+// sine states χ_m = √2 sin(mπξ), or, with a finite Stack, in the N lowest
+// states of the untilted stack in a box (see the package documentation,
+// "Finite barriers"; the rest of this comment is about infinite walls).
+// It implements [tiltwell.WaveSolver]. A
 // Solver holds configuration only: one value may be used from many
 // goroutines at once, and scratch space comes from a [sync.Pool], so calls
 // do not allocate in steady state.
@@ -192,6 +195,9 @@ const (
 //	    mirrored (tiltwell.Mirror)
 //	f < 0 with a potential: solved directly, no mirror symmetry
 //	k > N (Size > 0): an error wrapping tiltwell.ErrLevel
+//	finite Stack: see the package documentation; Size must be 0 or at
+//	    least 2; f < 0 is the mirrored stack (tiltwell.Stack.Fold), with
+//	    the potential mirrored too
 //	Size = 0: N starts at max(k + 8, 12 + ⌈12|f|^(3/7)⌉) and grows (by the
 //	    factor the N⁻⁷ rate predicts, 1.25 to 2) until every
 //	    Err ≤ Tol·max(1, |Energy|), at most AutoMaxSize; if even that misses
@@ -207,7 +213,9 @@ type Solver struct {
 	// be negative, NaN or infinite.
 	Tol float64
 	// Potential, if not nil, is added to the tilt: V(ξ) in units of E₁ for
-	// ξ in [0, 1]. It is called only at quadrature nodes inside (0, 1),
+	// ξ in [0, 1] (with a finite Stack, between the outer interfaces; the
+	// outer layers stay as the stack has them). It is called only at
+	// quadrature nodes inside that interval,
 	// possibly concurrently from several goroutines if the Solver is, and
 	// must be a pure function returning finite values of magnitude at most
 	// MaxPotential.
@@ -262,10 +270,13 @@ func negligible(f float64) float64 {
 // special cases. If dst is nil, a new slice is allocated and returned; if it
 // has capacity for k levels, Levels does not allocate in steady state.
 //
+// With a finite Stack fewer than k levels may be confined: Levels then
+// returns those with a [*tiltwell.ConfinedError].
+//
 // Errors wrap [tiltwell.ErrField] (NaN or infinite f), [tiltwell.ErrLevel]
 // (k < 1, k > Size, or k > AutoMaxSize), [tiltwell.ErrOutOfRange]
-// (|f| > MaxField), [tiltwell.ErrUnits] (a bad Size, Tol, Breaks, or a
-// Potential value that is not finite) and [tiltwell.ErrNoConvergence] (the
+// (|f| > MaxField), [tiltwell.ErrUnits] (a bad Size, Tol, Box, Breaks, or
+// a Potential value that is not finite) and [tiltwell.ErrNoConvergence] (the
 // eigensolver failed); the returned slice is then empty.
 func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
 	dst, _, err := s.Solve(dst, f, k)
@@ -310,9 +321,17 @@ func (s Solver) Solve(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level,
 // f ≥ 0, where the level lives near ξ = 0, and carried to f < 0 by mirror
 // symmetry.
 //
+// With a finite Stack the wavefunction is Σ c_m χ_m over the box states
+// of the same solve as Levels(f, n), normalized over the box and zero
+// outside it; it implements [tiltwell.Spread] with the box as its
+// support, and is positive at the first interface. At f = 0 without a
+// potential it is the Dirichlet box state itself.
+//
 // Special cases are:
 //
 //	f < 0, no potential: tiltwell.Mirror of the wavefunction at |f|
+//	f < 0, finite Stack: tiltwell.Mirror of the wavefunction of the
+//	    mirrored stack at |f|
 func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	if !s.Stack.Infinite() {
 		return s.stackWavefunction(f, n)
