@@ -409,7 +409,7 @@ func (s Solver) check(f float64, k int) error {
 	if s.Potential != nil {
 		lo, hi := 0.0, 1.0
 		if !s.Stack.Infinite() {
-			lo, hi = s.Stack.Span(1)
+			lo, _ = s.Stack.Span(1)
 			_, hi = s.Stack.Span(s.Stack.Len() - 2)
 		}
 		prev := lo

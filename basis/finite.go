@@ -83,7 +83,6 @@ type flevel struct {
 	Err, GammaErr            float64
 	bound                    tiltwell.Bound
 	theta                    float64 // the Ritz value in the box
-	psi0                     float64 // the Ritz function at the first interface
 	trunc                    float64 // the truncation part of err
 }
 
@@ -152,7 +151,7 @@ func depth(bar, eta, mu, f, D, limit float64, downhill bool) float64 {
 		if r >= 1 {
 			// The barrier ends before the decay reaches D: the wall goes to
 			// the first zero of Bi beyond the turning point, z = b₁, where
-			// the real problem's own solution vanishes (see edge.go).
+			// the real problem's own solution vanishes (see greens.go).
 			fs := math.Cbrt(f * f / (math.Pi * math.Pi * mu)) // f/s
 			return min((delta-airy.BiZero1*fs)/f, limit)
 		}

@@ -59,8 +59,6 @@ func (w *work) ritz(g *geometry, N, k int) error {
 	fw.psi = grow(fw.psi, nq)
 	psi := fw.psi[:nq]
 	eNext := fw.e[N] // the first box level outside the basis
-	// Below the box states outside the basis the tilt can pull the
-	// spectrum of the rest down by at most −min W.
 	for j := range kk {
 		lv := &fw.out[j]
 		if j == k {
@@ -104,6 +102,8 @@ func (w *work) ritz(g *geometry, N, k int) error {
 		// ‖(1 − P)Wψ‖², the residual outside the basis, and the rounding
 		// of that difference.
 		r2 := max(wpsi2/dnorm-pw2/(dnorm*dnorm), 0) + 8*float64(nq)*unit*wpsi2/dnorm
+		// The tilt and potential pull the spectrum of the states outside
+		// the basis down by at most −min W.
 		gapOut := eNext + fw.wmin - rho
 		var trunc float64
 		if gapOut > 0 {
@@ -115,7 +115,6 @@ func (w *work) ritz(g *geometry, N, k int) error {
 			trunc = math.Sqrt(r2)
 		}
 		psi0, psi1 = psi0/math.Sqrt(dnorm), psi1/math.Sqrt(dnorm)
-		lv.psi0 = psi0
 		// The pointwise error of ψ from the part outside the basis, δ,
 		// by |δ(x)|² ≤ 2‖δ‖‖δ′‖ (δ vanishes on the walls), with
 		// ‖δ‖ ≤ ‖r‖/gap and ‖δ′‖² ≤ π²μ_max ‖r‖²(E_(N+1) − v_min)/gap².
@@ -536,6 +535,3 @@ func (lv *flevel) finish(wallE, wallG float64) {
 	lv.Err = lv.err + wallE
 	lv.GammaErr = lv.gamma*lv.gammaRel + wallG + lv.gamma*math.Abs(lv.chi)*lv.Err
 }
-
-// wallSafety multiplies the wall's share of the error estimate.
-const wallSafety = 3
