@@ -205,14 +205,7 @@ func newRule(n int) *rule {
 // firstOrder returns the index in orders of the first rule to try for
 // levels whose largest √(|η| + |f|/2) are ae (electron) and ah (hole).
 func firstOrder(ae, ah float64) int {
-	eo := math.E * math.Pi / 2 * (ae + ah) // eω
-	for i, n := range orders {
-		q := 4 * float64(n) / eo
-		if q > 1 && 2*float64(n)*math.Log(q) >= 46 { // e^(−46) ≈ 1e-20
-			return i
-		}
-	}
-	return len(orders) - 1
+	return startOrder(math.Pi/2*(ae+ah), 46) // ω; e^(−46) ≈ 1e-20
 }
 
 // Sweep computes each transition in ts at each field (V/m) in fields,

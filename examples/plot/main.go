@@ -7,9 +7,23 @@
 // The fields are reduced (f in F₀, energies η in E₁), so the picture holds
 // for any width and mass; no physical data is involved.
 //
+// With -modulator it draws instead, in physical units, the two invented
+// demo structures of the tiltwell package (a 10 nm GaAs/Al0.3Ga0.7As well
+// and a 1.55 µm-band In0.53Ga0.47As/In0.52Al0.48As well on InP): the
+// e1–hh1, e1–lh1 and e1–hh2 transition energies, their overlaps² and the
+// carriers' escape times (log scale) against the field from 0 to -kvmax
+// kV/cm, from tiltwell.Device with the exact finite-barrier solver.
+//
+// With -finite it draws the electron of the 10 nm GaAs demo well with
+// finite barriers beside the same well with infinite walls: the Stark
+// shifts of the two lowest levels and the escape time of each level
+// against the field in kV/cm.
+//
 // Usage:
 //
-//	go run ./examples/plot -o docs/levels.svg [-fmax 30] [-n 3]
+//	go run ./examples/plot -o docs/levels.png [-fmax 30] [-n 3]
+//	go run ./examples/plot -modulator -o docs/modulator.png [-kvmax 200]
+//	go run ./examples/plot -finite -o docs/finite.png [-kvmax 200]
 package main
 
 import (
@@ -69,11 +83,28 @@ func main() {
 	out := flag.String("o", "levels.png", "output file, .png or .svg")
 	fmax := flag.Float64("fmax", 30, "largest reduced field")
 	k := flag.Int("n", 3, "number of levels")
+	mod := flag.Bool("modulator", false, "draw the demo structures' transitions in physical units instead")
+	fin := flag.Bool("finite", false, "draw a finite well's levels and escape times beside the infinite well's instead")
+	kvMax := flag.Float64("kvmax", 200, "largest field in kV/cm, with -modulator or -finite")
 	flag.Parse()
 	ext := strings.TrimPrefix(strings.ToLower(filepath.Ext(*out)), ".")
-	switch {
-	case ext != "png" && ext != "svg":
+	if ext != "png" && ext != "svg" {
 		fail(fmt.Errorf("-o %q: want a .png or .svg file", *out))
+	}
+	if *mod || *fin {
+		if !(*kvMax > 0 && *kvMax <= 400) {
+			fail(fmt.Errorf("-kvmax %v: want 0 < kvmax ≤ 400 kV/cm", *kvMax))
+		}
+		render := renderModulator
+		if *fin {
+			render = renderFinite
+		}
+		if err := render(*out, ext, *kvMax, 201); err != nil {
+			fail(err)
+		}
+		return
+	}
+	switch {
 	case !(*fmax > 0) || math.IsInf(*fmax, 0) || *fmax > exact.MaxField:
 		fail(fmt.Errorf("-fmax %v: want 0 < fmax ≤ %g", *fmax, float64(exact.MaxField)))
 	case *k < 1 || *k > 10:
