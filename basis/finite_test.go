@@ -10,6 +10,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/exact/exacttest"
 	"github.com/tiltwell/tiltwell/internal/squarewell"
 	"gonum.org/v1/gonum/integrate/quad"
 )
@@ -615,4 +616,21 @@ func TestFiniteAllocs(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestFiniteCheck runs the conformance harness on the finite demo well
+// (the invented GaAs/Al₀.₃Ga₀.₇As-like electron well of
+// tiltwell.FiniteWell's documentation) and on a deep well to f = 10, with
+// the rules' MaxRatio 10.
+func TestFiniteCheck(t *testing.T) {
+	t.Parallel()
+	st, err := tiltwell.FiniteWell(4.62, 1.372)
+	if err != nil {
+		t.Fatal(err)
+	}
+	exacttest.TestSolver(t, Solver{Stack: st},
+		exact.Grid{Stack: st, Fields: []float64{0, 0.05, 0.2, -0.2, 0.5, -0.8, 1}, Levels: 2, MaxRatio: 10})
+	deep := mustStack(t, 50, 1.5, 50, 1.5)
+	exacttest.TestSolver(t, Solver{Stack: deep},
+		exact.Grid{Stack: deep, Fields: []float64{0, 1e-4, 0.05, 0.3, -0.5, 1, 2, 3, 5, 10}, Levels: 3, MaxRatio: 10})
 }
