@@ -29,7 +29,10 @@ const (
 )
 
 // Solver is the Rayleigh–Ritz solution of the tilted well in the N lowest
-// sine states χ_m = √2 sin(mπξ). It implements [tiltwell.WaveSolver]. A
+// sine states χ_m = √2 sin(mπξ), or, with a finite Stack, in the N lowest
+// states of the untilted stack in a box (see the package documentation,
+// "Finite barriers"; the rest of this comment is about infinite walls).
+// It implements [tiltwell.WaveSolver]. A
 // Solver holds configuration only: one value may be used from many
 // goroutines at once, and scratch space comes from a [sync.Pool], so calls
 // do not allocate in steady state.
@@ -192,6 +195,9 @@ const (
 //	    mirrored (tiltwell.Mirror)
 //	f < 0 with a potential: solved directly, no mirror symmetry
 //	k > N (Size > 0): an error wrapping tiltwell.ErrLevel
+//	finite Stack: see the package documentation; Size must be 0 or at
+//	    least 2; f < 0 is the mirrored stack (tiltwell.Stack.Fold), with
+//	    the potential mirrored too
 //	Size = 0: N starts at max(k + 8, 12 + ⌈12|f|^(3/7)⌉) and grows (by the
 //	    factor the N⁻⁷ rate predicts, 1.25 to 2) until every
 //	    Err ≤ Tol·max(1, |Energy|), at most AutoMaxSize; if even that misses
@@ -207,7 +213,9 @@ type Solver struct {
 	// be negative, NaN or infinite.
 	Tol float64
 	// Potential, if not nil, is added to the tilt: V(ξ) in units of E₁ for
-	// ξ in [0, 1]. It is called only at quadrature nodes inside (0, 1),
+	// ξ in [0, 1] (with a finite Stack, between the outer interfaces; the
+	// outer layers stay as the stack has them). It is called only at
+	// quadrature nodes inside that interval,
 	// possibly concurrently from several goroutines if the Solver is, and
 	// must be a pure function returning finite values of magnitude at most
 	// MaxPotential.
@@ -215,8 +223,21 @@ type Solver struct {
 	// Breaks lists the points in (0, 1), in increasing order, where the
 	// Potential jumps or has a kink; quadrature panels are split there so
 	// the quadrature converges. It is used only with a Potential and must
-	// not be modified during a call.
+	// not be modified during a call. With a finite Stack they must lie
+	// between the outer interfaces.
 	Breaks []float64
+	// Stack is the layer structure. The zero value is the well with
+	// infinitely high walls, solved as described above; a finite stack is
+	// solved in a box of its untilted states (see the package
+	// documentation, "Finite barriers").
+	Stack tiltwell.Stack
+	// Box, used only with a finite Stack, is how far in units of L the box
+	// reaches beyond each outer interface into the outer layers. If Box is
+	// 0 it is chosen for each field from the decay of the highest level
+	// asked for (at most DefaultBox); on the downhill side under a field
+	// the box never reaches past that level's classical turning point. It
+	// must be finite, 0 ≤ Box ≤ MaxBox.
+	Box float64
 }
 
 var _ tiltwell.WaveSolver = Solver{}
@@ -249,10 +270,13 @@ func negligible(f float64) float64 {
 // special cases. If dst is nil, a new slice is allocated and returned; if it
 // has capacity for k levels, Levels does not allocate in steady state.
 //
+// With a finite Stack fewer than k levels may be confined: Levels then
+// returns those with a [*tiltwell.ConfinedError].
+//
 // Errors wrap [tiltwell.ErrField] (NaN or infinite f), [tiltwell.ErrLevel]
 // (k < 1, k > Size, or k > AutoMaxSize), [tiltwell.ErrOutOfRange]
-// (|f| > MaxField), [tiltwell.ErrUnits] (a bad Size, Tol, Breaks, or a
-// Potential value that is not finite) and [tiltwell.ErrNoConvergence] (the
+// (|f| > MaxField), [tiltwell.ErrUnits] (a bad Size, Tol, Box, Breaks, or
+// a Potential value that is not finite) and [tiltwell.ErrNoConvergence] (the
 // eigensolver failed); the returned slice is then empty.
 func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
 	dst, _, err := s.Solve(dst, f, k)
@@ -261,6 +285,9 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 
 // Solve is [Solver.Levels] that also reports the basis size it used.
 func (s Solver) Solve(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, Stats, error) {
+	if !s.Stack.Infinite() {
+		return s.solveStack(dst, f, k)
+	}
 	dst = dst[:0]
 	if err := s.check(f, k); err != nil {
 		return dst, Stats{}, err
@@ -294,10 +321,21 @@ func (s Solver) Solve(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level,
 // f ≥ 0, where the level lives near ξ = 0, and carried to f < 0 by mirror
 // symmetry.
 //
+// With a finite Stack the wavefunction is Σ c_m χ_m over the box states
+// of the same solve as Levels(f, n), normalized over the box and zero
+// outside it; it implements [tiltwell.Spread] with the box as its
+// support, and is positive at the first interface. At f = 0 without a
+// potential it is the Dirichlet box state itself.
+//
 // Special cases are:
 //
 //	f < 0, no potential: tiltwell.Mirror of the wavefunction at |f|
+//	f < 0, finite Stack: tiltwell.Mirror of the wavefunction of the
+//	    mirrored stack at |f|
 func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
+	if !s.Stack.Infinite() {
+		return s.stackWavefunction(f, n)
+	}
 	if err := s.check(f, n); err != nil {
 		return nil, err
 	}
@@ -362,11 +400,22 @@ func (s Solver) check(f float64, k int) error {
 	if !(s.Tol >= 0) || math.IsInf(s.Tol, 0) {
 		return fmt.Errorf("basis: Tol = %v is not a finite non-negative number: %w", s.Tol, tiltwell.ErrUnits)
 	}
+	if s.Size == 1 && !s.Stack.Infinite() {
+		return fmt.Errorf("basis: Size = 1 with a finite Stack, which needs at least 2 states: %w", tiltwell.ErrUnits)
+	}
+	if !(s.Box >= 0 && s.Box <= MaxBox) {
+		return fmt.Errorf("basis: Box = %v outside [0, %g]: %w", s.Box, float64(MaxBox), tiltwell.ErrUnits)
+	}
 	if s.Potential != nil {
-		prev := 0.0
+		lo, hi := 0.0, 1.0
+		if !s.Stack.Infinite() {
+			lo, _ = s.Stack.Span(1)
+			_, hi = s.Stack.Span(s.Stack.Len() - 2)
+		}
+		prev := lo
 		for i, b := range s.Breaks {
-			if !(b > prev && b < 1) {
-				return fmt.Errorf("basis: Breaks[%d] = %v not increasing inside (0, 1): %w", i, b, tiltwell.ErrUnits)
+			if !(b > prev && b < hi) {
+				return fmt.Errorf("basis: Breaks[%d] = %v not increasing inside (%g, %g): %w", i, b, lo, hi, tiltwell.ErrUnits)
 			}
 			prev = b
 		}

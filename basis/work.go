@@ -34,6 +34,13 @@ type work struct {
 	z               []float64 // N×kk tridiagonal eigenvectors
 	iv              []float64 // the inverse-iteration vector
 	dots            []float64 // kk inner products of a reflector
+
+	fw fwork // a finite stack's box, basis and levels (finite.go)
+	// gv, if it has length 2N, holds two vectors of length N that
+	// eigenSelected replaces with Qᵀgv, Q the orthogonal factor of the
+	// tridiagonal reduction A = Q T Qᵀ (T is left in d and e); the
+	// infinite well leaves it empty.
+	gv []float64
 }
 
 // level holds what the bracket of one Ritz pair needs. Offsets are from
@@ -174,6 +181,9 @@ func (w *work) eigenSelected(N, kk int) bool {
 			z[i*kk+j] = x[i]
 		}
 	}
+	if len(w.gv) == 2*N {
+		w.reflectT(N)
+	}
 	// Back-transformation: the eigenvectors of A are Q y, with
 	// Q = H_(N−2) ⋯ H_0 and H_i = I − τ_i v vᵀ, v = (A[0:i, i+1], 1, 0, …).
 	a := w.a
@@ -283,6 +293,35 @@ func (w *work) solveTri(N int, x []float64) {
 			for r := range i {
 				x[r] *= 1e-100
 			}
+		}
+	}
+}
+
+// reflectT overwrites the two vectors in w.gv with Qᵀ times them,
+// Q = H_(N−2) ⋯ H_0 the product of the Householder reflectors that Dsytrd
+// left in the upper triangle of w.a: Qᵀ = H_0 ⋯ H_(N−2), so the reflectors
+// act from the last.
+func (w *work) reflectT(N int) {
+	w.reflect1(N, w.gv[:N])
+	w.reflect1(N, w.gv[N:2*N])
+}
+
+func (w *work) reflect1(N int, x []float64) {
+	a := w.a
+	for i := N - 2; i >= 0; i-- {
+		tau := w.tau[i]
+		if tau == 0 {
+			continue
+		}
+		// v = (A[0:i, i+1], 1, 0, …).
+		dot := x[i]
+		for r := range i {
+			dot += a[r*N+i+1] * x[r]
+		}
+		dot *= tau
+		x[i] -= dot
+		for r := range i {
+			x[r] -= dot * a[r*N+i+1]
 		}
 	}
 }
