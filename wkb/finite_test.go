@@ -300,11 +300,11 @@ func TestFiniteRandomWells(t *testing.T) {
 // fluxStats compares the flux formula (fluxGamma) with exact's widths by
 // band of the under-barrier action ζ_L: from 5 to 7, from 7 to 9, above 9.
 type fluxStats struct {
-	n                 [3]int
-	dev, cut          [3]float64 // worst relative deviation from exact, worst cut
-	devPerGamma       float64    // worst deviation over Γ² (below ζ_L = 9)
-	cutLo, cutHi      float64    // range of cut e^(2ζ_L)
-	worstAt, worstCut string
+	n            [3]int
+	dev, cut     [3]float64 // worst relative deviation from exact, worst cut
+	devPerGamma  float64    // worst deviation over Γ² (below ζ_L = 9)
+	cutLo, cutHi float64    // range of cut e^(2ζ_L)
+	worstAt      string
 }
 
 func (s *fluxStats) add(w refWell, e tiltwell.Level) {
