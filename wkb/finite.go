@@ -138,14 +138,16 @@ func barrierSeriesErr(zeta, sB, sU float64) float64 {
 	c := airyCoefs()
 	k, sig, _ := barrierOrder(zeta)
 	b := 1 / zeta
-	// Partial sums U_j, V_j of every stored term.
+	// Partial sums U_j, V_j, formed as far as they are needed.
 	var u, v [airyTerms]float64
 	u[0], v[0] = 1, 1
-	bk := 1.0
-	for j := 1; j < airyTerms; j++ {
-		bk *= b
-		u[j] = u[j-1] + c.u[j]*bk
-		v[j] = v[j-1] + c.v[j]*bk
+	bk, filled := 1.0, 0
+	fill := func(i int) {
+		for ; filled < i; filled++ {
+			bk *= b
+			u[filled+1] = u[filled] + c.u[filled+1]*bk
+			v[filled+1] = v[filled] + c.v[filled+1]*bk
+		}
 	}
 	est := 0.0
 	for j, wt := range [2]float64{1 - sig, sig} {
@@ -153,8 +155,10 @@ func barrierSeriesErr(zeta, sB, sU float64) float64 {
 			continue
 		}
 		cp := math.Inf(1)
+		fill(k + j)
 		r0, u0 := v[k+j]/u[k+j], u[k+j]
 		for i := k + j + 1; i < airyTerms; i++ {
+			fill(i)
 			d := math.Abs(sB*(v[i]/u[i]-v[i-1]/u[i-1])/r0 + sU*(u[i]-u[i-1])/u0)
 			if i > k+j+3 && d >= cp {
 				break // past the smallest term
