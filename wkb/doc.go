@@ -190,24 +190,38 @@
 // errors are one function of one variable: the estimate is twice the next
 // three terms' changes (each counted at most as large as the one before,
 // since past its smallest term the series grows while its error stays
-// about that size), measured against the Airy modulus to be never below
-// the error and at most 6.5× above it for ζ_L from 0.6 to 40
+// about that size) and the further terms while they keep falling (the
+// tail that three terms miss at K = 8 and ζ_L ≳ 5), measured against the
+// Airy modulus to be 2.0 to 6.5 times the error for ζ_L from 0.6 to 40
 // (TestBarrierSeries). Err carries it into η through the sensitivity
 // ∂d_L/∂B over dF/dη, with the next order of the second-order shift
-// (4|η₂|gχ + g(gχ)²) and rounding; GammaErr carries it into ln G, with the
-// error of η times d ln Γ/dη, the error of the period from the slope of the
-// phase error, (gχ)² for the first-order width, and rounding. Against
-// exact.Solver with a Stack on the grid of issue 12 (24 symmetric wells,
-// v = 2…50, μ = 1, 1.37, 2, and 40 seeded random asymmetric ones in the
-// same ranges, at 19 fields with |f| ≤ 10; TestFiniteAgainstExact): 3376
-// levels, no energy or width estimate below the true error, and where the
-// true error exceeds 1e-12 energy estimates at most 8.5× the error (median
-// 2.0×) and width estimates at most 9.7×. On 400 random wells at 6 fields
-// each (-finite-wells 400): 7426 levels with no undershoot (worst 9.7×,
-// 9.7×), and 20787 levels with barriers to 2000 E₁ and |f| ≤ 300 with
-// none either (worst 9.8× for energies, 11.4× for 2 of 1174 widths). The
-// plain rule's estimates never undershoot on the grid but reach 36×
-// (energies) and 56× (widths) where it lands near the truth by chance.
+// (4|η₂|gχ + g(gχ)²) and rounding. GammaErr carries it into ln Γ through
+// ln G and through the root's shift δη = −δF/F′ (times
+// d ln Γ/dη = χ₁ − F″/F′), added with their signs before the terms are
+// counted, since the same δB and δU₊ drive both and they partly cancel;
+// with the error of the period from the slope of the phase error, the
+// rest of η's error times d ln Γ/dη, (gχ)² for the first-order width, and
+// rounding. Against exact.Solver with a Stack on the grid of issue 12 (24
+// symmetric wells, v = 2…50, μ = 1, 1.37, 2, and 40 seeded random
+// asymmetric ones in the same ranges, at 19 fields with |f| ≤ 10;
+// TestFiniteAgainstExact, by the rules of exact.Check, narrow widths
+// included): 3376 levels, no energy or width estimate below the true
+// error (the closest errors are 0.50 of their energy estimate and 0.68 of
+// their width estimate), and where the true error exceeds 1e-12 energy
+// estimates at most 8.5× the error (median 2.1×) and width estimates at
+// most 7.9× (median 3.4×). On 400 random wells at 6 fields each
+// (-finite-wells 400): 7426 levels with no undershoot (worst 9.7× for
+// energies, 8.2× for widths), and 20787 levels with barriers to 2000 E₁
+// and |f| ≤ 300 with none either (worst 9.8× and 8.5×). Every width of
+// these runs whose relative error is above 1e-11 (the narrow ones too,
+// whose absolute error is far below 1e-12) has an estimate 1.2 to 8.5
+// times its error. The plain rule's estimates never undershoot on the
+// grid but reach 36× (energies) and 35× (widths) where it lands near the
+// truth by chance. The reference's widths are accurate to 1.2e-10 of Γ
+// against the 256-bit table exact/testdata/stack256.txt (exact.Solver's
+// documentation), and its narrow ones agree with this package's
+// independent flux formula to 1e-10 of Γ (TestReferenceAgreesWithExact).
+// TestFiniteCheck runs exact.Check with MaxRatio 10 on three finite wells.
 // In one run of BenchmarkFiniteLevels (on a shared, loaded machine, where
 // the hard-wall rule took 0.4 µs a level) a level cost 0.4 µs at f = 0 and
 // 1.1 to 3.2 µs under a field, against exact.Solver's 0.6 µs and 2.1 to

@@ -98,10 +98,10 @@ func checkStack(st tiltwell.Stack) error {
 // WKB form (1/√κ) e^(∫κ), whose log-derivative is κ − κ′/(2κ). The
 // truncation error of B = √z V₊/U₊ then has one sign for every ζ_L the
 // method accepts (after K terms it changes sign near ζ_L ≈ 0.55 K + 0.1:
-// past that the next terms no longer measure it), and the next three
-// terms, each counted at most as large as the one before, bound it: by
-// 1.5 to 6 times the true error for ζ_L ≥ 0.9, measured on the exact
-// Airy modulus (TestBarrierSeries).
+// past that the next terms no longer measure it), and the next terms
+// (see [barrierSeriesErr]) bound it: twice them is 2 to 6.5 times the
+// true error for ζ_L from 0.6 to 40, measured on the exact Airy modulus
+// (TestBarrierSeries).
 const (
 	maxBarrierOrder = 8
 	barrierOffset   = 0.7
@@ -128,19 +128,26 @@ func barrierOrder(zetaL float64) (k int, sig, dsig float64) {
 // changes by sB δB/B + sU δU₊/U₊ with the relative errors of
 // B = √z V₊/U₊ and U₊ in the blend of [barrierOrder] at ζ: after each
 // truncation K, the next three terms' changes, each counted at most as
-// large as the one before, blended with the same weight.
+// large as the one before, and after them the further terms for as long
+// as they keep falling (the remainder of an asymptotic series is about
+// the sum of its terms down to the smallest), blended with the same
+// weight. The further terms count only where the series still converges
+// fast at the truncation (K = 8 and ζ above about 5), where three terms
+// alone were measured to give 0.7 of the error (TestBarrierSeries).
 func barrierSeriesErr(zeta, sB, sU float64) float64 {
 	c := airyCoefs()
 	k, sig, _ := barrierOrder(zeta)
 	b := 1 / zeta
-	// Partial sums U_j, V_j for j = 0..k+4.
-	var u, v [maxBarrierOrder + 5]float64
+	// Partial sums U_j, V_j, formed as far as they are needed.
+	var u, v [airyTerms]float64
 	u[0], v[0] = 1, 1
-	bk := 1.0
-	for j := 1; j <= k+4; j++ {
-		bk *= b
-		u[j] = u[j-1] + c.u[j]*bk
-		v[j] = v[j-1] + c.v[j]*bk
+	bk, filled := 1.0, 0
+	fill := func(i int) {
+		for ; filled < i; filled++ {
+			bk *= b
+			u[filled+1] = u[filled] + c.u[filled+1]*bk
+			v[filled+1] = v[filled] + c.v[filled+1]*bk
+		}
 	}
 	est := 0.0
 	for j, wt := range [2]float64{1 - sig, sig} {
@@ -148,10 +155,15 @@ func barrierSeriesErr(zeta, sB, sU float64) float64 {
 			continue
 		}
 		cp := math.Inf(1)
+		fill(k + j)
 		r0, u0 := v[k+j]/u[k+j], u[k+j]
-		for i := k + j + 1; i <= k+j+3; i++ {
-			d := sB*(v[i]/u[i]-v[i-1]/u[i-1])/r0 + sU*(u[i]-u[i-1])/u0
-			cp = min(cp, math.Abs(d))
+		for i := k + j + 1; i < airyTerms; i++ {
+			fill(i)
+			d := math.Abs(sB*(v[i]/u[i]-v[i-1]/u[i-1])/r0 + sU*(u[i]-u[i-1])/u0)
+			if i > k+j+3 && d >= cp {
+				break // past the smallest term
+			}
+			cp = min(cp, d)
 			est += wt * cp
 		}
 	}
@@ -498,17 +510,26 @@ func (w *well) finish(n int, p point) (tiltwell.Level, string) {
 		return tiltwell.Level{}, fmt.Sprintf("too broad for the quasiclassical width (Γ/2 times its rate of change %.2g > %g)", gc, maxBroad)
 	}
 	eta2 := g * g * (kappa2 - chi1 + xy)
-	// The next three terms of the barrier's series after each of the
-	// blended truncations, each counted at most as large as the one
-	// before (past its smallest term the series grows, and the error
-	// stays about the size of that term), blended with the same weight:
-	// relative errors eB of B and eU of U₊ (TestBarrierSeries measures
-	// them against the Airy modulus), turned into the phase and ln G by
-	// their sensitivities, ∂d_L/∂B = −y q_L/(x² + y²) and
+	// The next terms of the barrier's series after each of the blended
+	// truncations (barrierSeriesErr: three, each counted at most as large
+	// as the one before, since past its smallest term the series grows
+	// and the error stays about the size of that term; then the further
+	// terms while they fall), blended with the same weight: relative
+	// errors eB of B and eU of U₊ (TestBarrierSeries measures them
+	// against the Airy modulus), turned into the phase and ln G by their
+	// sensitivities, ∂d_L/∂B = −y q_L/(x² + y²) and
 	// ∂ln G/∂B = −2x q_L/(x² + y²).
 	sens := w.qL * d.b / d.d2
 	dF := barrierSeriesErr(p.zetaL, d.y*sens, 0)
-	dLnG := barrierSeriesErr(p.zetaL, 2*d.x*sens, 2)
+	// Γ = 2G/F′ errs through ln G at the root and through the root's
+	// shift δη = −δF/F′, which moves ln Γ by (d ln Γ/dη) δη with
+	// d ln Γ/dη = χ₁ − F″/F′ = χ₁ − 2κ₂: both are linear in the same
+	// relative errors of B and U₊, so they are added with their signs
+	// before the terms are counted (they partly cancel, and counted
+	// apart they made the estimate up to 11× the error):
+	//
+	//	δ ln Γ = −(2x − (χ₁ − 2κ₂) y/F′) q_L δB/(x² + y²) − 2 δU₊/U₊ − δF′/F′.
+	dLnGamma := barrierSeriesErr(p.zetaL, 2*d.x*sens-(chi1-2*kappa2)*d.y*sens/fp, 2)
 	eta := p.e - w.f/2
 	fn := float64(n)
 	// Rounding: ψ ≈ n to a few ε (n + 1), the Airy phases to
@@ -522,16 +543,22 @@ func (w *well) finish(n int, p point) (tiltwell.Level, string) {
 		}
 	}
 	round := eps*(4*(fn+1)+(4+zb)/math.Pi)/p.dpsi + eps*(math.Abs(eta)+p.e)
-	errE := finiteSafety*dF/fp + round + 4*math.Abs(eta2)*gc + g*gc*gc
+	series := finiteSafety * dF / fp
+	errE := series + round + 4*math.Abs(eta2)*gc + g*gc*gc
 	lv := tiltwell.Level{N: n, Energy: eta + eta2, Err: errE, Bound: tiltwell.Estimate}
 	// F′ errs by the e-derivative of the phase error; the truncation
 	// error falls off like ζ_L^(−K−1), so its log-derivative is about
-	// (K + 1)/ζ_L times dζ_L/de = −κ(0)/f.
+	// (K + 1)/ζ_L times dζ_L/de = −κ(0)/f. (Near the blends of the
+	// truncations the error's slope drops to a fifth of that, so this
+	// term goes without the safety factor.)
 	k, _, _ := barrierOrder(p.zetaL)
 	dzeta := w.cL * math.Sqrt(p.zl) * w.invEa
 	relFp := dF * float64(k+1) * dzeta / (p.zetaL * fp)
-	rel := finiteSafety*math.Expm1(dLnG) + relFp + (math.Abs(chi1)+2*math.Abs(kappa2))*errE + gc*gc +
-		eps*(8+4*p.zetaL)
+	// The rest of η's error (rounding, the second-order terms) moves
+	// ln Γ as the root's shift does, and ζ_L's rounding (z_L to a few ε,
+	// 2ζ_L = (4/3) z_L^(3/2)) moves ln Γ by about 8ε ζ_L.
+	rel := finiteSafety*dLnGamma + relFp + (math.Abs(chi1)+2*math.Abs(kappa2))*(errE-series) + gc*gc +
+		eps*(8+8*p.zetaL)
 	if gamma < gammaFloor {
 		lv.Gamma, lv.GammaErr = 0, gammaFloor
 		return lv, ""
