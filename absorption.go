@@ -179,7 +179,8 @@ const fwhmPerSigma = 2.3548200450309493
 //
 // Broadening. Every line and continuum is convolved with the Voigt
 // profile V, the convolution of a Gaussian of FWHM Inhomogeneous (the
-// spread of well widths and compositions) and a Lorentzian of FWHM
+// spread of well widths and compositions; widened per transition by
+// WidthSpread) and a Lorentzian of FWHM
 // Γ = Width + Homogeneous, Width being the transition's escape width
 // Γ_e + Γ_h ([ExcitonLine].Width). The Voigt profile is Re w(z)/(σ√(2π)),
 // z = (x + iΓ/2)/(σ√2), with the Faddeeva function w by J. A. C.
@@ -260,7 +261,7 @@ const (
 	// [Absorption.Spectrum] computes one transition's continuum: the
 	// energy range (plus 32 broadening widths) divided by a step of about
 	// a quarter of the Gaussian's standard deviation. At its limit one
-	// continuum costs about 0.1 s.
+	// continuum costs about 0.1 s (43 ms measured at 16000 points).
 	MaxLattice = 20000
 )
 
@@ -274,15 +275,23 @@ const (
 // The exciton lines are evaluated directly. Each continuum is computed on
 // a lattice of step h anchored at its band edge, h = min(max(σ/4, Γ/16),
 // R/2) (σ the Gaussian's standard deviation, Γ the Lorentzian FWHM, R the
-// Sommerfeld Rydberg), by the trapezoidal rule in ε with the Euler–Maclaurin
-// corrections at the edge, where V(u − ε)S(ε) has its only end (S is flat
-// there: all its derivatives vanish), and the Lorentzian tail beyond 32
-// widths from an expansion of V, (Γ/2π)(1/y² + (3σ² − Γ²/4)/y⁴), integrated
-// against S by a 6-point Gauss–Legendre rule; the lattice values are
-// then interpolated to the photon energies by 8-point Lagrange
-// interpolation. Held against an adaptive quadrature of the defining
-// integral (TestContinuumAgainstQuadrature), the continuum is accurate to
-// … of its step height.
+// Sommerfeld Rydberg), by the trapezoidal rule in ε with three
+// Euler–Maclaurin corrections at the edge (DLMF 2.10.1), where
+// V(u − ε)S(ε) has its only end (S is flat there: all its derivatives
+// vanish; the derivatives of V come from those of w), and the Lorentzian
+// tail beyond 32 widths from an expansion of V,
+// (Γ/2π)(1/y² + (3σ² − Γ²/4)/y⁴), integrated against S by a 6-point
+// Gauss–Legendre rule; the lattice values are then interpolated to the
+// photon energies by 10-point Lagrange interpolation. Held against an
+// independent quadrature of the defining integral over Gaussian,
+// Lorentzian and mixed broadenings with and without the Sommerfeld factor
+// (TestContinuumAgainstQuadrature), the continuum is accurate to 1.2e-7
+// of its step height.
+//
+// Cost: for the four transitions of [DemoGaAsWell] in BenchmarkAbsorption
+// (500 photon energies over 240 meV, 4 meV Gaussian and 4 meV Lorentzian
+// FWHM), 2–4 ms on one core of a shared machine, mostly the continua's
+// lattice sums (about 600 × 600 terms each).
 //
 // Spectrum returns an error wrapping [ErrUnits], naming the value, for: an
 // Inhomogeneous width that is not a finite positive number, a
@@ -296,7 +305,8 @@ const (
 // energy, or whose Reduced mass is not a finite positive number; and for
 // no photon energies or one that is not a finite positive number; and
 // for a continuum that would need more than [MaxLattice] lattice points
-// (a broadening far narrower than the energy range).
+// (a broadening, or a Sommerfeld Rydberg E_B/4, far narrower than the
+// energy range).
 func (a Absorption) Spectrum(dst []float64, ab Absorber, photon []float64) ([]float64, error) {
 	if err := a.validate(); err != nil {
 		return dst, err
@@ -464,8 +474,9 @@ var tailRule = sync.OnceValue(func() quadNodes {
 	return r
 })
 
-// interpWeights holds the barycentric weights (−1)^j C(7, j) of 8-point
-// equispaced interpolation.
+// interpWeights holds the barycentric weights (−1)^j C(9, j) of 10-point
+// equispaced interpolation (J.-P. Berrut and L. N. Trefethen, SIAM Rev.
+// 46, 501 (2004), §5; from memory).
 var interpWeights = [interpPoints]float64{1, -9, 36, -84, 126, -126, 84, -36, 9, -1}
 
 // addContinuum adds step·C(u_i) to out[i] for each offset u_i (meV) from
@@ -488,8 +499,12 @@ func addContinuum(out, u []float64, step, sigma, gamma, r float64) error {
 	top := max(float64(kmax)*h, 0) + d0
 	n := float64(kmax-kmin+1) + top/h
 	if !(n <= MaxLattice) {
-		return fmt.Errorf("the continuum needs %.3g lattice points (step %.3g meV over %.3g meV), more than %d: widen the broadening or narrow the energy range: %w",
-			n, h, umax-umin+top, MaxLattice, ErrUnits)
+		why := "widen the broadening or narrow the energy range"
+		if r > 0 && h == r/2 {
+			why = fmt.Sprintf("the step is set by the Sommerfeld Rydberg E_B/4 = %.3g meV: narrow the energy range, or use the FreeCarrier continuum", r)
+		}
+		return fmt.Errorf("the continuum needs %.3g lattice points (step %.3g meV over %.3g meV), more than %d: %s: %w",
+			n, h, umax-umin+top, MaxLattice, why, ErrUnits)
 	}
 	jmax := int(math.Ceil(top / h))
 	// S on the ε lattice, and V at every lattice distance that occurs,
