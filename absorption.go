@@ -87,7 +87,8 @@ const (
 	// with the Rydberg R = E_B/4 of the line's binding energy E_B (the
 	// two-dimensional atom binds by 4R; taking R from the quasi-2D binding
 	// is an interpolation, common practice, no source). S is 2 at the
-	// edge and falls to 1 as √(R/ε) far above it. It is the zero value.
+	// edge and tends to 1 far above it, S − 1 ≈ π√(R/ε). It is the zero
+	// value.
 	Sommerfeld Continuum = iota
 	// FreeCarrier is the two-dimensional joint density of states without
 	// the Coulomb enhancement: a step of constant height.
@@ -185,7 +186,7 @@ const fwhmPerSigma = 2.3548200450309493
 // Γ_e + Γ_h ([ExcitonLine].Width). The Voigt profile is Re w(z)/(σ√(2π)),
 // z = (x + iΓ/2)/(σ√2), with the Faddeeva function w by J. A. C.
 // Weideman, SIAM J. Numer. Anal. 31, 1497 (1994) (internal/faddeeva:
-// relative error below 1e-15 against a 600-bit series). The continuum is
+// relative error at most 9.1e-16 against a 600-bit series). The continuum is
 // C_t(u) = ∫₀^∞ V(u − ε) S(ε) dε, S the Sommerfeld factor (or 1): see
 // [Absorption.Spectrum] for how it is computed.
 //
@@ -334,12 +335,12 @@ func (a Absorption) Spectrum(dst []float64, ab Absorber, photon []float64) ([]fl
 			continue
 		}
 		gamma := (l.Width + a.Homogeneous) / 2 // HWHM
-		sigma := math.Hypot(sigma, l.Slope*a.WidthSpread)
+		sig := math.Hypot(sigma, l.Slope*a.WidthSpread)
 		if l.Density > 0 {
 			peak := l.Energy - l.Binding/1e3
 			amp := 2 * w * l.Density
 			for i, e := range photon {
-				out[i] += amp * faddeeva.Voigt((e-peak)*1e3, sigma, gamma)
+				out[i] += amp * faddeeva.Voigt((e-peak)*1e3, sig, gamma)
 			}
 		}
 		if a.Continuum == NoContinuum {
@@ -354,7 +355,7 @@ func (a Absorption) Spectrum(dst []float64, ab Absorber, photon []float64) ([]fl
 			u[i] = (e - l.Energy) * 1e3
 		}
 		step := w * jointDensity(l.Reduced)
-		if err := addContinuum(out, u, step, sigma, gamma, r); err != nil {
+		if err := addContinuum(out, u, step, sig, gamma, r); err != nil {
 			return dst, fmt.Errorf("tiltwell: absorption: %v continuum over %g–%g eV: %w", l.Transition, lo, hi, err)
 		}
 	}

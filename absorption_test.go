@@ -170,6 +170,7 @@ func TestAbsorptionTwoDimensionalRatio(t *testing.T) {
 		t.Fatal(err)
 	}
 	ratio := area / step[0] // meV
+	t.Logf("L = 1e-6 a*: E_B = %.6f Ry*, line area / step = %.6g meV = %.6f E_B", b.Energy/x.Rydberg(), ratio, ratio/b.Energy)
 	if want := 8 * b.Energy; math.Abs(ratio/want-1) > 1e-4 {
 		t.Errorf("line area / step = %.6g meV, want 8 E_B = %.6g meV (E_B = %.6g meV = %.6f Ry*)", ratio, want, b.Energy, b.Energy/x.Rydberg())
 	}

@@ -34,8 +34,9 @@ type Modulator struct {
 
 // Waveguide returns the [Modulator] of a waveguide of length (metres)
 // whose optical mode has the confinement factor confinement ∈ (0, 1] in
-// all the wells together: Path = confinement × length, the modal
-// absorption being Γα (common practice, no source). It returns an error
+// all the wells together (N wells of confinement Γ₁ each: NΓ₁):
+// Path = confinement × length, the modal absorption being Γα (common
+// practice, no source). It returns an error
 // wrapping [ErrUnits] for a length that is not a finite positive number
 // or a confinement factor outside (0, 1].
 func Waveguide(length, confinement float64) (Modulator, error) {

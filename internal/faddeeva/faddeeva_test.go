@@ -207,8 +207,9 @@ func TestWAgainstSeries(t *testing.T) {
 		}
 	}
 	t.Logf("worst relative error %.3g at z = %v", worst, worstZ)
-	if worst > 1e-15 {
-		t.Errorf("worst relative error %.3g at z = %v, want ≤ 1e-15", worst, worstZ)
+	// 9.1e-16 measured; the margin allows for fused multiply-adds.
+	if worst > 1.5e-15 {
+		t.Errorf("worst relative error %.3g at z = %v, want ≤ 1.5e-15", worst, worstZ)
 	}
 }
 
