@@ -95,8 +95,8 @@ type Solver interface {
 // convention is φ′(0) > 0. In a finite [Stack] φ reaches into the barriers:
 // a bound state is normalized over the whole line, and a quasi-bound level
 // (Γ > 0) is the real solution at its energy η_r normalized over the
-// interval between its outer classical turning points, which tends to the
-// bound state as Γ → 0; its sign makes φ positive at the first interface
+// interval its [Spread.Support] gives, bounded on the downhill side by the
+// outer classical turning point, which tends to the bound state as Γ → 0; its sign makes φ positive at the first interface
 // (the left edge of the inner layers), the limit of φ′(0) > 0 as the
 // barriers grow. Such a wavefunction implements [Spread], which gives the
 // interval to integrate over.
@@ -112,8 +112,11 @@ type Spread interface {
 	Wavefunction
 	// Support returns the interval [lo, hi] over which φ is normalized:
 	// for a bound state, an interval outside which ∫φ² dξ is below 1e-16
-	// of the whole; for a quasi-bound level, its outer classical turning
-	// points. Integrals of φ, such as overlaps, need look no further.
+	// of the whole; for a quasi-bound level, the same, except that on the
+	// downhill side the interval ends no further out than the outer
+	// classical turning point, beyond which the real solution describes
+	// the escaping wave rather than the level. Integrals of φ, such as
+	// overlaps, need look no further.
 	Support() (lo, hi float64)
 }
 

@@ -250,3 +250,35 @@ func (ls *layerScale) modulusBC(p *fpoint) (lam dual, lnPrest, zeta float64) {
 	lam = dual{lv, -(ls.s / ls.mu) * ls.c * (inv + p.z - L*L)}
 	return lam, math.Log(ls.s / (ls.mu * math.Pi * m2)), zeta
 }
+
+// modulusTable is [layerScale.modulusBC] for 0 ≤ z < posStart, from the
+// phase series of the node table (see airy.go): with c(z), d(z) the
+// rotated solutions about the nearest node j, c² + d² = M_j² M² and
+// cc′ + dd′ = M_j² M M′, so M′/M and M² need two Horner sums and no
+// exponential. ζ is returned as 0 (lnPrest is then ln P itself).
+func (ls *layerScale) modulusTable(z float64) (lam dual, lnPrest, zeta float64) {
+	s, cs, ds := tableCD(dd{z, 0})
+	d := z - s.z
+	var cp, dp float64
+	for k := s.nt - 1; k >= 1; k-- {
+		cp = cp*d + float64(k)*s.c[k]
+		dp = dp*d + float64(k)*s.d[k]
+	}
+	q := cs*cs + ds*ds
+	m2 := q / s.m2
+	mp := (cs*cp + ds*dp) / q
+	sm := ls.s / ls.mu
+	// d/dη (s/μ)M′/M = −(s/μ)c (M″/M − (M′/M)²), M″/M = 1/(π²M⁴) + z.
+	lam = dual{sm * mp, -sm * ls.c * (1/(math.Pi*math.Pi*m2*m2) + z - mp*mp)}
+	return lam, math.Log(sm / (math.Pi * m2)), 0
+}
+
+// aiTable returns the physical log-derivative (s/μ)Ai′/Ai and its
+// η-derivative for 0 ≤ z < posStart, from the Taylor series of Ai about
+// the nearest node.
+func (ls *layerScale) aiTable(z float64) dual {
+	s, d := node(z)
+	L := hornerD(&s.ai, d) / horner(&s.ai, d)
+	sm := ls.s / ls.mu
+	return dual{sm * L, -sm * ls.c * (z - L*L)}
+}

@@ -279,7 +279,10 @@ func (c *calc) broad(out *stackLevel, g, chi1, kappa2 float64) (notConfined, err
 	if cmplx.Abs(eta-start) > 0.3*out.spacing || imag(eta) >= 0 {
 		return "", fmt.Errorf("exact: level %d at f = %g: complex Newton left the resonance: %w", out.lv.N, c.f, tiltwell.ErrNoConvergence)
 	}
-	e := errEta + last
+	// The complex equation's rounding, the last step, and the real
+	// equation's rounding estimate as a floor (the two are formed from
+	// the same solutions).
+	e := errEta + last + rl.err
 	out.lv.Energy = real(eta)
 	out.lv.Err = e
 	out.lv.Gamma = -2 * imag(eta)

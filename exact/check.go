@@ -28,8 +28,13 @@ type Grid struct {
 	Tol float64
 	// MaxRatio, if not 0, is the most pessimistic an estimate may be:
 	// a level with Err > MaxRatio × |η − η_exact| where the true error is
-	// above 1e-14 counts as a failure. The tiltwell rules use 10.
+	// above 1e-14 (1e-12 for a finite Stack) counts as a failure. The
+	// tiltwell rules use 10.
 	MaxRatio float64
+	// Stack is the layer structure the solver under test was made for;
+	// the reference is Solver{Stack: Stack}. The zero Stack is the well
+	// with infinitely high walls.
+	Stack tiltwell.Stack
 }
 
 // Worst is where a quantity over the grid was largest.
@@ -140,9 +145,13 @@ type Report struct {
 	// with |η − η_exact| > Tol + Err_exact.
 	Tol    float64
 	Beyond int
+	// Gamma is filled in for a finite Stack: how the escape widths Γ
+	// compare with the reference's.
+	Gamma *GammaReport
 	// Waves is filled in for a [tiltwell.WaveSolver]: the worst
 	// normalisation defect |∫φ² dξ − 1| and the smallest overlap
-	// ∫φ φ_exact dξ, over the grid.
+	// ∫φ φ_exact dξ, over the grid (over the wavefunctions' supports,
+	// [tiltwell.Support], for a finite Stack).
 	Waves *WaveReport
 	// Violations lists broken rules of the Solver contract and errors the
 	// solver returned on the grid.
@@ -164,12 +173,52 @@ type Report struct {
 	Diff string
 }
 
+// GammaReport compares the escape widths Γ of a solver with the
+// reference's over the grid, by the rules that [Report] applies to the
+// energies: an undershoot is |Γ − Γ_exact| > GammaErr + GammaErr_exact;
+// a gross one is beyond SmallExcess times that and beyond the rounding
+// floor RoundingULPs ulps of Γ_exact (or 1e-300); pessimism is measured
+// where the true error is above 1e-12.
+type GammaReport struct {
+	// Abs is the worst |Γ − Γ_exact| in E₁, Rel the worst |Γ −
+	// Γ_exact|/Γ_exact over the levels with Γ_exact > 0.
+	Abs, Rel Worst
+	// Undershoots, GrossUndershoots and Allowed count as for the
+	// energies; Worst is the undershoot with the largest excess.
+	Undershoots, GrossUndershoots, Allowed int
+	Worst                                  GammaPoint
+	// Ratio is the most pessimistic GammaErr/|Γ − Γ_exact| where the true
+	// error is above 1e-12; Pessimistic counts those beyond
+	// Grid.MaxRatio.
+	Ratio       Worst
+	Pessimistic int
+}
+
+// GammaPoint is one level's escape width as the solver gave it and as the
+// reference has it, in E₁.
+type GammaPoint struct {
+	F                     float64
+	N                     int
+	Want, Got             float64
+	GammaErr, RefGammaErr float64
+}
+
+// Excess returns |Got − Want|/(GammaErr + RefGammaErr) (0 for no error).
+func (p GammaPoint) Excess() float64 {
+	d := math.Abs(p.Got - p.Want)
+	if d == 0 {
+		return 0
+	}
+	return d / (p.GammaErr + p.RefGammaErr)
+}
+
 // WaveReport summarises the wavefunctions of a [tiltwell.WaveSolver] over
 // the grid.
 type WaveReport struct {
-	// Norm is the worst |∫₀¹ φ² dξ − 1|.
+	// Norm is the worst |∫φ² dξ − 1| (over [0, 1], or over the
+	// wavefunction's support for a finite Stack).
 	Norm Worst
-	// Overlap is the smallest ∫₀¹ φ φ_exact dξ: 1 for a perfect
+	// Overlap is the smallest ∫φ φ_exact dξ: 1 for a perfect
 	// wavefunction, negative for one with the wrong sign.
 	Overlap Worst
 }
@@ -184,10 +233,16 @@ type WaveReport struct {
 //     level;
 //   - at most Allowed (1% of the Estimate levels, rounded down) small
 //     undershoots, where the estimate misses by less than that;
-//   - no level beyond Tol or MaxRatio when those are set.
+//   - no level beyond Tol or MaxRatio when those are set;
+//   - for a finite Stack, the same rules for the escape widths (see
+//     [GammaReport]).
 func (r *Report) OK() bool {
-	return len(r.Violations) == 0 && r.RigorousUndershoots == 0 && r.GrossUndershoots == 0 &&
+	ok := len(r.Violations) == 0 && r.RigorousUndershoots == 0 && r.GrossUndershoots == 0 &&
 		r.Undershoots-r.RigorousUndershoots <= r.Allowed && r.Beyond == 0 && r.Pessimistic == 0
+	if g := r.Gamma; g != nil {
+		ok = ok && g.GrossUndershoots == 0 && g.Undershoots <= g.Allowed && g.Pessimistic == 0
+	}
+	return ok
 }
 
 // maxListed is the most undershoots a Report lists one by one.
@@ -200,8 +255,12 @@ const normTol = 1e-6
 
 // ratioFloor is the true error above which an estimate's pessimism is
 // measured (the tiltwell rules: "not more than 10× pessimistic where the
-// true error is above 1e-14").
-const ratioFloor = 1e-14
+// true error is above 1e-14", and 1e-12 for finite barriers,
+// ratioFloorStack, for energies and widths alike).
+const (
+	ratioFloor      = 1e-14
+	ratioFloorStack = 1e-12
+)
 
 // Check holds the solver s against the exact reference ([Solver]) at every
 // field and level of g, and checks the rules of the [tiltwell.Solver]
@@ -213,13 +272,22 @@ const ratioFloor = 1e-14
 //     NaN or infinite energy, Err neither NaN nor negative, a known Bound;
 //   - Levels appends to dst[:0], reusing dst's storage when it has the
 //     capacity, and gives the same levels as with a nil dst;
-//   - the energies at f and −f agree within the two error estimates;
+//   - the energies at f and −f agree within the two error estimates
+//     (for a finite Stack, only if it is [tiltwell.Stack.Symmetric]);
 //   - the levels computed from several goroutines at once agree with the
 //     serial ones within their error estimates;
 //   - for a WaveSolver: the same errors from Wavefunction, At(ξ) = 0
 //     outside [0, 1] and for NaN, ∫φ² = 1 within 1e-6, and the sign
 //     convention φ′(0) > 0 (seen as a positive overlap with the exact
 //     wavefunction).
+//
+// For a finite g.Stack the reference is Solver{Stack: g.Stack}, the
+// escape widths are held to their estimates as the energies are (see
+// [GammaReport]), and the wavefunctions are integrated over their
+// supports ([tiltwell.Support]) in pieces between the interfaces (At is
+// not required to vanish outside [0, 1]); the sign convention is then φ >
+// 0 at the first interface. The grid must lie where the reference confines
+// g.Levels levels.
 //
 // A panic in s is recovered and reported as a violation. Errors that s
 // returns at the grid's fields are violations too: choose a grid inside
@@ -229,8 +297,9 @@ const ratioFloor = 1e-14
 // (wrapping [tiltwell.ErrNoSolver]), an empty field list or a field that
 // is not finite ([tiltwell.ErrField]), |f| > MaxField
 // ([tiltwell.ErrOutOfRange]), Levels outside 1..MaxLevels
-// ([tiltwell.ErrLevel]), or a negative or NaN Tol or MaxRatio
-// ([tiltwell.ErrUnits]).
+// ([tiltwell.ErrLevel]), a field where the reference confines fewer than
+// g.Levels levels (an error wrapping [tiltwell.ErrLevel]), or a negative
+// or NaN Tol or MaxRatio ([tiltwell.ErrUnits]).
 func Check(s tiltwell.Solver, g Grid) (*Report, error) {
 	if s == nil {
 		return nil, fmt.Errorf("exact: check: nil solver: %w", tiltwell.ErrNoSolver)
@@ -248,13 +317,13 @@ func Check(s tiltwell.Solver, g Grid) (*Report, error) {
 	}
 	ref := make([][]tiltwell.Level, len(g.Fields))
 	for i, f := range g.Fields {
-		ls, err := Solver{}.Levels(nil, f, g.Levels)
+		ls, err := Solver{Stack: g.Stack}.Levels(nil, f, g.Levels)
 		if err != nil {
 			return nil, fmt.Errorf("exact: check: reference at f = %g: %w", f, err)
 		}
 		ref[i] = ls
 	}
-	return check(s, g.Fields, ref, g.Tol, g.MaxRatio), nil
+	return check(s, g.Stack, g.Fields, ref, g.Tol, g.MaxRatio), nil
 }
 
 func checkLimits(tol, maxRatio float64) error {
@@ -267,9 +336,18 @@ func checkLimits(tol, maxRatio float64) error {
 	return nil
 }
 
-// check compares s with the reference levels ref[i] at fields[i].
-func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, maxRatio float64) *Report {
+// check compares s with the reference levels ref[i] at fields[i], for
+// the stack st.
+func check(s tiltwell.Solver, st tiltwell.Stack, fields []float64, ref [][]tiltwell.Level, tol, maxRatio float64) *Report {
 	r := &Report{Solver: fmt.Sprintf("%T", s), Fields: len(fields), Tol: tol}
+	floor := ratioFloor
+	var gr *GammaReport
+	var nGamma int
+	if !st.Infinite() {
+		floor = ratioFloorStack
+		gr = &GammaReport{}
+		r.Gamma = gr
+	}
 	// got[i] are the solver's energies at fields[i] (nil where it broke
 	// the contract), for the diff once the margin is known.
 	got := make([][]float64, len(fields))
@@ -287,7 +365,9 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 			continue
 		}
 		r.dstReuse(s, ls, f, k)
-		r.mirror(s, ls, f, k)
+		if st.Symmetric() {
+			r.mirror(s, ls, f, k)
+		}
 		got[i] = make([]float64, k)
 		for j, l := range ls {
 			rl := ref[i][j]
@@ -330,7 +410,11 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 					r.WorstUndershoot = p
 				}
 			}
-			if d > ratioFloor {
+			if gr != nil {
+				nGamma++
+				gr.add(GammaPoint{F: f, N: l.N, Want: rl.Gamma, Got: l.Gamma, GammaErr: l.GammaErr, RefGammaErr: rl.GammaErr}, maxRatio)
+			}
+			if d > floor {
 				q := l.Err / d
 				if q > r.Ratio.Value {
 					r.Ratio = Worst{q, f, l.N}
@@ -354,10 +438,13 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 		r.Undershot = append(r.Undershot, p)
 	}
 	r.Allowed = nEst / 100
+	if gr != nil {
+		gr.Allowed = nGamma / 100
+	}
 	r.badInput(s, fields[0], len(ref[0]))
 	r.concurrent(s, fields, ref)
 	if ws, ok := s.(tiltwell.WaveSolver); ok {
-		r.waves(ws, fields, ref)
+		r.waves(ws, st, fields, ref)
 	}
 	r.Margin = tol
 	if r.Margin == 0 {
@@ -366,6 +453,38 @@ func check(s tiltwell.Solver, fields []float64, ref [][]tiltwell.Level, tol, max
 	r.Margin += maxRef
 	r.Diff = diff(fields, ref, got, r.Margin)
 	return r
+}
+
+// add counts one level's escape width.
+func (g *GammaReport) add(p GammaPoint, maxRatio float64) {
+	d := math.Abs(p.Got - p.Want)
+	if d > g.Abs.Value {
+		g.Abs = Worst{d, p.F, p.N}
+	}
+	if p.Want > 0 {
+		if rel := d / p.Want; rel > g.Rel.Value {
+			g.Rel = Worst{rel, p.F, p.N}
+		}
+	}
+	if d > p.GammaErr+p.RefGammaErr {
+		g.Undershoots++
+		floor := max(RoundingULPs*0x1p-52*p.Want, gammaFloor)
+		if d > SmallExcess*(p.GammaErr+p.RefGammaErr) && d > floor {
+			g.GrossUndershoots++
+		}
+		if p.Excess() > g.Worst.Excess() {
+			g.Worst = p
+		}
+	}
+	if d > ratioFloorStack {
+		q := p.GammaErr / d
+		if q > g.Ratio.Value {
+			g.Ratio = Worst{q, p.F, p.N}
+		}
+		if maxRatio > 0 && q > maxRatio {
+			g.Pessimistic++
+		}
+	}
 }
 
 // maxDiff is the most levels Report.Diff lists.
@@ -603,7 +722,7 @@ func callAt(w tiltwell.Wavefunction, xi float64) (v float64) {
 }
 
 // waves checks the wavefunctions of every level on the grid.
-func (r *Report) waves(ws tiltwell.WaveSolver, fields []float64, ref [][]tiltwell.Level) {
+func (r *Report) waves(ws tiltwell.WaveSolver, st tiltwell.Stack, fields []float64, ref [][]tiltwell.Level) {
 	wr := &WaveReport{Overlap: Worst{Value: math.Inf(1)}}
 	r.Waves = wr
 	for i, f := range fields {
@@ -613,18 +732,28 @@ func (r *Report) waves(ws tiltwell.WaveSolver, fields []float64, ref [][]tiltwel
 				r.violate("f=%g: Wavefunction(%g, %d): %v", f, f, n, err)
 				continue
 			}
-			we, err := Solver{}.Wavefunction(f, n)
+			we, err := Solver{Stack: st}.Wavefunction(f, n)
 			if err != nil {
 				r.violate("f=%g: reference wavefunction %d: %v", f, n, err)
 				continue
 			}
-			for _, xi := range []float64{-0.25, -1e-300, 1 + 1e-15, 2, math.NaN(), math.Inf(1)} {
+			outside := []float64{-0.25, -1e-300, 1 + 1e-15, 2, math.NaN(), math.Inf(1)}
+			if !st.Infinite() {
+				outside = []float64{math.NaN()}
+			}
+			for _, xi := range outside {
 				if v := callAt(w, xi); v != 0 {
 					r.violate("f=%g n=%d: At(%v) = %v, want 0 outside [0, 1]", f, n, xi, v)
 					break
 				}
 			}
-			norm, ov, ok := integrals(w, we)
+			var norm, ov float64
+			var ok bool
+			if st.Infinite() {
+				norm, ov, ok = integrals(w, we)
+			} else {
+				norm, ov, ok = stackIntegrals(w, we, st)
+			}
 			if !ok {
 				r.violate("f=%g n=%d: wavefunction has NaN or infinite values, or panics", f, n)
 				continue
@@ -692,6 +821,78 @@ func integrals(w, we tiltwell.Wavefunction) (norm, overlap float64, ok bool) {
 	return norm, overlap, true
 }
 
+// stackIntegrals returns ∫φ² over w's support and ∫φ φ_exact over the
+// union of the two supports, each integral in pieces between the stack's
+// interfaces (where φ′ jumps with the mass), by the rules of [integrals]
+// on each piece; ok is false for NaN or infinite values or a support that
+// is not a finite interval.
+func stackIntegrals(w, we tiltwell.Wavefunction, st tiltwell.Stack) (norm, overlap float64, ok bool) {
+	lo, hi := tiltwell.Support(w)
+	elo, ehi := tiltwell.Support(we)
+	if !(lo < hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) {
+		return 0, 0, false
+	}
+	cuts := func(a, b float64) []float64 {
+		c := []float64{a}
+		for _, x := range st.Interfaces(nil) {
+			if x > a && x < b {
+				c = append(c, x)
+			}
+		}
+		return append(c, b)
+	}
+	sq := func(x float64) float64 { v := callAt(w, x); return v * v }
+	prod := func(x float64) float64 { return callAt(w, x) * we.At(x) }
+	c := cuts(lo, hi)
+	for i := 0; i+1 < len(c); i++ {
+		v, good := pieceIntegral(sq, c[i], c[i+1])
+		if !good {
+			return 0, 0, false
+		}
+		norm += v
+	}
+	c = cuts(min(lo, elo), max(hi, ehi))
+	for i := 0; i+1 < len(c); i++ {
+		v, good := pieceIntegral(prod, c[i], c[i+1])
+		if !good {
+			return 0, 0, false
+		}
+		overlap += v
+	}
+	return norm, overlap, true
+}
+
+// pieceIntegral integrates g over [a, b] with the Gauss–Legendre rules of
+// [integrals], on subintervals of length at most 1 (the wavefunctions
+// oscillate or decay on the scale of the reference well), raising the
+// order until two successive orders agree to waveTol.
+func pieceIntegral(g func(float64) float64, a, b float64) (float64, bool) {
+	n := max(1, int(math.Ceil(b-a)))
+	total := 0.0
+	for j := range n {
+		x0 := a + (b-a)*float64(j)/float64(n)
+		x1 := a + (b-a)*float64(j+1)/float64(n)
+		var prev, s float64
+		for i, r := range waveRules() {
+			s = 0
+			for q, x := range r.x {
+				v := g(x0 + (x1-x0)*x)
+				if math.IsNaN(v) || math.IsInf(v, 0) {
+					return 0, false
+				}
+				s += r.w[q] * v
+			}
+			s *= x1 - x0
+			if i > 0 && math.Abs(s-prev) <= waveTol {
+				break
+			}
+			prev = s
+		}
+		total += s
+	}
+	return total, true
+}
+
 // String returns the report as readable text, several lines, ending in
 // the diff if there is one.
 func (r *Report) String() string {
@@ -733,6 +934,21 @@ func (r *Report) String() string {
 	}
 	if r.Tol > 0 {
 		fmt.Fprintf(&b, "  tolerance %g: %d levels beyond it\n", r.Tol, r.Beyond)
+	}
+	if g := r.Gamma; g != nil {
+		fmt.Fprintf(&b, "  escape widths: worst |Γ − Γ_exact| %.3g (f=%g n=%d), relative %.3g (f=%g n=%d); %d undershoots (%d gross, %d allowed)",
+			g.Abs.Value, g.Abs.F, g.Abs.N, g.Rel.Value, g.Rel.F, g.Rel.N, g.Undershoots, g.GrossUndershoots, g.Allowed)
+		if g.Ratio.Value > 1 {
+			fmt.Fprintf(&b, "; most pessimistic %.3g× (f=%g n=%d)", g.Ratio.Value, g.Ratio.F, g.Ratio.N)
+			if g.Pessimistic > 0 {
+				fmt.Fprintf(&b, ", %d beyond the limit", g.Pessimistic)
+			}
+		}
+		b.WriteString("\n")
+		if g.Undershoots > 0 {
+			p := g.Worst
+			fmt.Fprintf(&b, "    worst: f=%g n=%d: Γ = %.17g ± %.3g, exact %.17g ± %.3g\n", p.F, p.N, p.Got, p.GammaErr, p.Want, p.RefGammaErr)
+		}
 	}
 	if w := r.Waves; w != nil {
 		fmt.Fprintf(&b, "  wavefunctions: |∫φ² − 1| ≤ %.3g (f=%g n=%d), overlap with exact ≥ %.12f (f=%g n=%d)\n",

@@ -1,11 +1,19 @@
-// Package exact is the exact reference for the tilted infinite well: the
-// levels, wavefunctions and dipoles of
+// Package exact is the exact reference for the tilted quantum well: the
+// levels, wavefunctions and dipoles of the well with infinitely high walls,
 //
 //	H = −(1/π²) d²/dξ² + f (ξ − ½),   φ(0) = φ(1) = 0,
 //
 // from the Airy-function solution, to full float64 accuracy, for any level
-// up to [MaxLevels] and any field |f| ≤ [MaxField]. Every other method in
-// tiltwell is tested against it.
+// up to [MaxLevels] and any field |f| ≤ [MaxField]; and, for a
+// [tiltwell.Stack] of finite barriers and layers (Solver.Stack), of the
+// BenDaniel–Duke model
+//
+//	H = −(1/π²) d/dξ (1/μ) d/dξ + v(ξ) + f (ξ − ½),
+//
+// whose levels under a field are quasi-bound, η_r − iΓ/2, with the escape
+// width Γ from 1e-300 to the broad resonances near ionisation (see
+// [Solver]). Every other method in tiltwell is tested against it, and
+// [Check] holds any solver of either model against it.
 //
 // The package also exports the real-argument Airy functions it is built on
 // ([Airy], [AiryScaled], [ModulusPhase], [AiZero]), accurate to a few units

@@ -80,3 +80,35 @@ func ExampleAiry() {
 	// Bi(1) = 1.207423594952871
 	// Bi′(1) = 0.932435933392776
 }
+
+// A finite well: barriers 4.3 E₁ high in which the carrier is 1.37 times
+// heavier, roughly the electron of a 10 nm GaAs well between Al₀.₃Ga₀.₇As
+// barriers. Under a field its levels are quasi-bound: Γ is the escape
+// width in E₁. It binds three levels at zero field.
+func ExampleSolver_finiteWell() {
+	st, err := tiltwell.FiniteWell(4.3, 1.37)
+	if err != nil {
+		log.Fatal(err)
+	}
+	s := exact.Solver{Stack: st}
+	for _, f := range []float64{0, 1, 2} {
+		ls, err := s.Levels(nil, f, 2)
+		if err != nil {
+			log.Fatal(err)
+		}
+		for _, l := range ls {
+			fmt.Printf("f=%g n=%d η=%.6f Γ=%.2g\n", f, l.N, l.Energy, l.Gamma)
+		}
+	}
+	_, err = s.Levels(nil, 0, 4)
+	n, _ := tiltwell.Confined(err)
+	fmt.Println("bound at f = 0:", n)
+	// Output:
+	// f=0 n=1 η=0.539320 Γ=0
+	// f=0 n=2 η=2.116882 Γ=0
+	// f=1 n=1 η=0.500173 Γ=6.9e-14
+	// f=1 n=2 η=2.116891 Γ=1.4e-05
+	// f=2 n=1 η=0.386890 Γ=2.8e-06
+	// f=2 n=2 η=2.100709 Γ=0.019
+	// bound at f = 0: 3
+}

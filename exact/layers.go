@@ -17,17 +17,21 @@ import (
 // A state is (φ, w) at one point, each with its derivative with respect to
 // η (a [dual]), scaled by e^lg so that growth through thick barriers
 // neither overflows nor underflows, and the number of zeros of φ passed so
-// far. Three kinds of step carry it across a layer:
+// far. Four kinds of step carry it across a layer:
 //
 //   - f = 0: the exact transfer matrix of cosh/sinh (v > η) or cos/sin
-//     (v < η), written with sinh(x)/x so that it is smooth through v = η.
-//   - f > 0, where the layer is classically allowed or its forbidden part
-//     is thin (ζ grows by less than 20 across it): the Taylor series of
-//     φ about the start of each step, whose coefficients obey
-//     (k+2)(k+1) c_(k+2) = λ c_k + π²μf c_(k−1) (DLMF 9.2.1 in these
-//     variables); steps are short enough (|h|·max(√|λ|, (π²μf)^(1/3)) ≤
-//     stepTheta) that a step holds at most one zero of φ and the series
-//     needs about 20 terms. At f → 0 this is the zero-field transfer.
+//     (v < η), written with sinh(x)/x so that it is smooth through v = η;
+//     across a barrier with κw > 1 in two-mode form (twoModeLayer).
+//   - f > 0 across an allowed stretch spanning a unit of z or more: the
+//     Airy amplitude–phase transfer (milne.go).
+//   - f > 0 elsewhere, where the forbidden part is thin (ζ grows by less
+//     than 20 across it), and in every stretch while a wavefunction is
+//     recorded: the Taylor series of φ about the start of each step,
+//     whose coefficients obey (k+2)(k+1) c_(k+2) = λ c_k + π²μf c_(k−1)
+//     (DLMF 9.2.1 in these variables); steps are short enough
+//     (|h|·max(√|λ|, (π²μf)^(1/3)) ≤ stepTheta) that a step holds at most
+//     one zero of φ and the series needs about 20 terms. At f → 0 this is
+//     the zero-field transfer.
 //   - f > 0 across a thick forbidden part (ζ grows by 20 or more): the
 //     growing Airy solution alone (the decaying one is below e^(−40) of
 //     it at the far end), from the log-derivatives of Ai and Bi at both
@@ -35,7 +39,8 @@ import (
 //
 // Zeros are counted by the sign of φ at the ends of each step (a step,
 // a forbidden part and a zero-field layer with kw < π hold at most one), or
-// from the exact phase kw in a longer zero-field layer.
+// from the exact phase (kw, or Δ of the Airy transfer) across a longer
+// allowed stretch.
 
 // stepTheta bounds |h|·scale of one Taylor step.
 const stepTheta = 1.25
@@ -125,20 +130,22 @@ func taylorStep(st *rstate, h, mu, lam, beta, lamd float64) {
 	d0, d1 := st.u.d, mu*st.w.d*h
 	U, W := e0+e1, e1
 	Ud, Wd := d0+d1, d1
-	size := math.Abs(e0) + math.Abs(e1)
-	sized := math.Abs(d0) + math.Abs(d1)
+	tol := 0x1p-60 * (math.Abs(e0) + math.Abs(e1))
+	told := 0x1p-60 * (math.Abs(d0) + math.Abs(d1) + (math.Abs(e0)+math.Abs(e1))*math.Abs(Ad))
 	var em1, dm1 float64 // e_(k−1), d_(k−1)
 	ek, ek1, dk, dk1 := e0, e1, d0, d1
 	for k := 0; k+2 < maxTaylor; k++ {
-		inv := 1 / float64((k+2)*(k+1))
+		inv := taylorInv[k]
 		e2 := (A*ek + B*em1) * inv
 		d2 := (A*dk + Ad*ek + B*dm1) * inv
-		kk := float64(k + 2)
+		kk := taylorK[k]
 		U += e2
 		W += kk * e2
 		Ud += d2
 		Wd += kk * d2
-		if k >= 2 && math.Abs(e2)+math.Abs(ek1) <= 0x1p-60*size && math.Abs(d2)+math.Abs(dk1) <= 0x1p-60*(sized+size*math.Abs(Ad)) {
+		// Two small terms in a row (the three-term recurrence can
+		// make one small by accident); checked every other term.
+		if k&1 == 1 && math.Abs(e2)+math.Abs(ek1) <= tol && math.Abs(d2)+math.Abs(dk1) <= told {
 			break
 		}
 		em1, dm1 = ek, dk
@@ -154,6 +161,15 @@ func taylorStep(st *rstate, h, mu, lam, beta, lamd float64) {
 	st.steps++
 	st.renorm()
 }
+
+// taylorInv[k] = 1/((k+2)(k+1)) and taylorK[k] = k+2.
+var taylorInv, taylorK = func() (inv, kk [maxTaylor]float64) {
+	for k := range inv {
+		inv[k] = 1 / float64((k+2)*(k+1))
+		kk[k] = float64(k + 2)
+	}
+	return inv, kk
+}()
 
 // taylorPart carries st from x0 to x1 (either direction) through part of a
 // layer with edge v and mass mu at field f ≥ 0, in Taylor steps.
@@ -196,8 +212,8 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg seg
 // allowedPart carries st across an allowed stretch at f > 0: by the Airy
 // transfer (milnePart) when the stretch spans at least one unit of z and
 // no wavefunction is being recorded, by Taylor steps otherwise.
-func allowedPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg segInfo, ls layerScale) {
-	if rec == nil && ls.s*math.Abs(x1-x0) >= 1 && ls.c*(eta-v-f*(min(x0, x1)-0.5)) < 1e8 {
+func allowedPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg segInfo, ls layerScale, taylorOnly bool) {
+	if rec == nil && !taylorOnly && ls.s*math.Abs(x1-x0) >= 1 && ls.c*(eta-v-f*(min(x0, x1)-0.5)) < 1e8 {
 		milnePart(st, x0, x1, v, mu, f, eta, &ls)
 		return
 	}
@@ -407,9 +423,10 @@ type calc struct {
 	n      int
 	f      float64
 	mirror bool
-	// forceBroad makes every quasi-bound level take the complex path
-	// (tests compare the two).
-	forceBroad bool
+	// forceBroad makes every quasi-bound level take the complex path,
+	// and taylorOnly every allowed stretch Taylor steps (tests compare
+	// the formulations).
+	forceBroad, taylorOnly bool
 	// scales caches the layer scales of the first layers and of the last
 	// one (scales[cachedScales]).
 	scales [cachedScales + 1]layerScale
@@ -480,7 +497,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	qhi := v + f*(hi-0.5) - eta
 	if qhi <= 0 {
 		// Allowed throughout.
-		allowedPart(st, x0, x1, v, mu, f, eta, rec, seg, c.scale(j))
+		allowedPart(st, x0, x1, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
 		return
 	}
 	// The forbidden part [xt, hi] with xt the turning point (or lo).
@@ -498,11 +515,11 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 		if xt > lo {
 			// An allowed stretch and a thin forbidden one.
 			if dir > 0 {
-				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, c.scale(j))
+				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
 				taylorPart(st, xt, hi, v, mu, f, eta, rec, seg)
 			} else {
 				taylorPart(st, hi, xt, v, mu, f, eta, rec, seg)
-				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, c.scale(j))
+				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
 			}
 			return
 		}
@@ -514,7 +531,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	seg.kind, seg.ls, seg.a, seg.b, seg.la, seg.lb = segThick, ls, a, b, xt, hi
 	if dir > 0 {
 		if xt > lo {
-			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j))
+			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
 		}
 		if rec != nil {
 			seg.to = hi
@@ -529,6 +546,6 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	}
 	thickLeft(st, &a, &b, gAi)
 	if xt > lo {
-		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j))
+		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
 	}
 }

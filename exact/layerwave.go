@@ -39,18 +39,16 @@ type StackWave struct {
 	lo, hi      float64 // support
 	n           int
 	turningLeft float64
-	mirrorSign  float64
 }
 
 // wavePiece is a stretch of an inner layer on which φ is carried from a
 // known state at x, in the same direction as the solution was built.
 type wavePiece struct {
-	a, b  float64 // the stretch, a < b
-	x     float64 // where the state is known (a or b)
-	u, w  float64 // state at x (scaled by e^lg)
-	lg    float64 // log of the factor that turns u into φ
-	seg   segInfo
-	taylR float64 // for Taylor pieces: the far end (to)
+	a, b float64 // the stretch, a < b
+	x    float64 // where the state is known (a or b)
+	u, w float64 // state at x (scaled by e^lg)
+	lg   float64 // log of the factor that turns u into φ
+	seg  segInfo
 }
 
 // waveRecorder collects the pieces while a solution is carried.
@@ -352,9 +350,9 @@ func zeroValue(u, w, h, v, mu, eta float64) (float64, float64) {
 	return C*u + mu*S*w, lg
 }
 
-// Wavefunction returns the normalized wavefunction of level n at reduced
-// field f: for infinite walls a [*Wave], for a Stack a [*StackWave]; for
-// f < 0 the mirror image ([tiltwell.Mirror]) of the level at |f|.
+// stackWavefunction returns the [*StackWave] of level n at f, or for f < 0
+// the mirror image ([tiltwell.Mirror]) of the level of the mirrored stack
+// at |f|.
 func (s Solver) stackWavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	sl, c, err := s.solveOneCalc(f, n)
 	if err != nil {

@@ -434,5 +434,5 @@ func (t *Table) Check(s tiltwell.Solver, tol float64) (*Report, error) {
 	if err := checkLimits(tol, 0); err != nil {
 		return nil, err
 	}
-	return check(s, t.Fields, t.Levels, tol, 0), nil
+	return check(s, tiltwell.Stack{}, t.Fields, t.Levels, tol, 0), nil
 }

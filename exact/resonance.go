@@ -34,6 +34,9 @@ func (c *calc) leftBC(eta float64) (lam dual, lnPrest, zeta float64) {
 	}
 	q := max(v+c.f*(hi-0.5)-eta, 0)
 	ls := c.scale(0)
+	if z := ls.c * q; z < posStart {
+		return ls.modulusTable(z)
+	}
 	p := ls.forbOne(q, true)
 	return ls.modulusBC(&p)
 }
@@ -48,6 +51,9 @@ func (c *calc) rightBC(eta float64) dual {
 	}
 	q := max(v+c.f*(lo-0.5)-eta, 0)
 	ls := c.scale(c.n - 1)
+	if z := ls.c * q; z < posStart {
+		return ls.aiTable(z)
+	}
 	p := ls.forbOne(q, false)
 	return p.ld
 }
@@ -164,6 +170,21 @@ func (c *calc) evalAll(a *allEval, eta, ref float64) {
 	}
 }
 
+// thickInner reports whether some inner layer is a barrier at η that
+// holds the solution's growth to more than e^3 (∫κ > 3 at the lower of
+// its ends): only then does it matter at which interface a level is
+// matched.
+func (c *calc) thickInner(eta float64) bool {
+	for j := 1; j < c.n-1; j++ {
+		lo, hi, v, mu := c.layer(j)
+		q := v + c.f*(lo-0.5) - eta
+		if q > 0 && math.Pi*math.Sqrt(mu*q)*(hi-lo) > 3 {
+			return true
+		}
+	}
+	return false
+}
+
 // flattest returns the interface where dD/dη is smallest. By the Prüfer
 // identity dϑ/dη = S π² ∫φ²/(S²φ² + w²), at a level that is where the
 // level's wavefunction is largest: both solutions reach it growing
@@ -213,7 +234,11 @@ func (c *calc) scaleAt(m int, eta float64) float64 {
 	lo, _, v, mu := c.layer(m)
 	q := v + c.f*(lo-0.5) - eta
 	l := math.Pi * math.Pi * mu * math.Abs(q)
-	s2 := math.Pow(math.Pi*math.Pi*mu*c.f, 2.0/3)
+	s2 := 0.0
+	if c.f > 0 {
+		sc := c.scale(m)
+		s2 = sc.s * sc.s
+	}
 	return math.Sqrt(max(l, s2, 1)) / mu
 }
 
@@ -228,10 +253,16 @@ type realLevel struct {
 	m       int
 	S       float64
 	its     int
-	// The Wronskian slope F_r′ of the evaluation before last, at prevEta,
-	// scaled to res's log-scales (NaN if there was none at the same
-	// matching point): with res's it gives F_r″.
-	prevEta, prevFp float64
+	// The Wronskian F_r and its slope F_r′ of the evaluation before last,
+	// at prevEta, scaled to res's log-scales (NaN if there was none at the
+	// same matching point): with res's they give F_r″.
+	prevEta, prevF, prevFp float64
+}
+
+// wronsk returns F_r = φ_L w_R − w_L φ_R from r's solutions (in their
+// scaled units).
+func wronsk(r *evalResult) float64 {
+	return r.L.u.v*r.R.w.v - r.L.w.v*r.R.u.v
 }
 
 // wronskSlope returns F_r′ = d/dη (φ_L w_R − w_L φ_R) from the duals of r's
@@ -261,9 +292,15 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	if !(eta > lo && eta < hi) {
 		eta = mid(lo, hi)
 	}
-	all := c.n > 3 && c.n <= maxSelect
+	// sel: the stack has several interfaces to choose from; full: this
+	// iteration evaluates them all (the first, and after a rejected
+	// step).
+	sel := c.n > 3 && c.n <= maxSelect
+	// Without thick inner barriers every interface does: start at the
+	// default one.
+	full := sel && c.thickInner(eta)
 	var ae *allEval
-	if all {
+	if sel {
 		ae = allPool.Get().(*allEval)
 		defer allPool.Put(ae)
 	}
@@ -273,8 +310,8 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	var prevEta, prevDp float64
 	havePrev := false
 	side := 0 // Illinois: which end was kept last
-	// The last evaluation's η, F_r′ and log-scale, for F_r″.
-	lastEta, lastFp, lastLg, lastM := math.NaN(), math.NaN(), 0.0, -1
+	// The last evaluation's η, F_r, F_r′ and log-scale, for F_r″.
+	lastEta, lastF, lastFp, lastLg, lastM := math.NaN(), math.NaN(), math.NaN(), 0.0, -1
 	// newtonNext returns the θ-Newton step from η for the equation
 	// value g with slope dp, and whether it lies inside the bracket.
 	newtonNext := func(g, dp float64) (float64, bool) {
@@ -296,7 +333,8 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	for it := 1; it <= 200; it++ {
 		var r evalResult
 		next, ok := 0.0, false
-		if all {
+		wasFull := full
+		if full {
 			c.evalAll(ae, eta, ref)
 			// The shortest Newton step that stays in the bracket; if
 			// none does, the equation where the previous step was
@@ -312,6 +350,9 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			if !ok {
 				r = c.match(ae.L[m], ae.R[m], ae.S[m])
 			}
+			S = ae.S[m]
+			full = false
+			havePrev = false
 		} else {
 			r = c.eval(eta, m, S)
 			next, ok = newtonNext(r.D-target, r.Dp)
@@ -321,9 +362,6 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			return realLevel{}, fmt.Errorf("exact: level %d at f = %g: the stack's layers hold more than %d Taylor steps at this field: %w", n, c.f, maxSteps, tiltwell.ErrOutOfRange)
 		}
 		g := r.D - target
-		if traceNewton {
-			fmt.Printf("   it=%d m=%d η=%.17g g=%.3g Dp=%.3g [%.6g, %.6g]\n", it, m, eta, g, r.Dp, lo, hi)
-		}
 		if g > 0 {
 			hi, ghi = eta, g
 		} else {
@@ -331,23 +369,30 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 		}
 		dp := r.Dp
 		ulp := eps * max(1, math.Abs(eta))
-		// F_r′ of the evaluation before this one, in this one's scale.
-		pEta, pFp := lastEta, math.NaN()
+		// F_r and F_r′ of the evaluation before this one, in this one's
+		// scale.
+		pEta, pF, pFp := lastEta, math.NaN(), math.NaN()
 		if lastM == m {
-			pFp = lastFp * math.Exp(lastLg-(r.L.lg+r.R.lg))
+			sc := math.Exp(lastLg - (r.L.lg + r.R.lg))
+			pF, pFp = lastF*sc, lastFp*sc
 		}
-		lastEta, lastFp, lastLg, lastM = eta, wronskSlope(&r), r.L.lg+r.R.lg, m
+		lastEta, lastF, lastFp, lastLg, lastM = eta, wronsk(&r), wronskSlope(&r), r.L.lg+r.R.lg, m
 		done := func(eta, err float64) (realLevel, error) {
 			evalEta := evalEta
-			if all {
-				// Match where the level lives.
+			if sel && (wasFull || c.thickInner(evalEta)) {
+				// Match where the level lives (it matters only
+				// across thick inner barriers).
+				if !wasFull {
+					c.evalAll(ae, evalEta, ref)
+				}
 				r, m = c.flattest(ae)
 				S = ae.S[m]
 				if r.Dp > 0 {
 					err = max(err, 2*r.errD/r.Dp+2*ulp)
 				}
+				pEta, pF, pFp = math.NaN(), math.NaN(), math.NaN()
 			}
-			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it, prevEta: pEta, prevFp: pFp}, nil
+			return realLevel{eta: eta, err: err, res: r, evalEta: evalEta, m: m, S: S, its: it, prevEta: pEta, prevF: pF, prevFp: pFp}, nil
 		}
 		if dp > 0 && !math.IsInf(dp, 0) {
 			step := g / dp
@@ -359,7 +404,7 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 				return done(nx, 2*r.errD/dp+2*ulp)
 			}
 			curv := 0.0
-			if havePrev && eta != prevEta && !all {
+			if havePrev && eta != prevEta {
 				curv = math.Abs((dp - prevDp) / (eta - prevEta) / (2 * dp))
 			}
 			prevEta, prevDp, havePrev = eta, dp, true
@@ -373,7 +418,9 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 				continue
 			}
 		}
-		// Illinois step between the bracket ends.
+		// Illinois step between the bracket ends, and a fresh look at
+		// where to match.
+		full = sel
 		a, b, ga, gb := lo, hi, glo, ghi
 		switch {
 		case side < 0:
@@ -399,8 +446,6 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 }
 
 var allPool = sync.Pool{New: func() any { return new(allEval) }}
-
-var traceNewton = false
 
 // mid returns the midpoint of [lo, hi], or a finite point inside it when
 // an end is infinite.

@@ -70,6 +70,11 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 		return out, "", nil
 	}
 	why, err := c.escape(&out)
+	if err == nil && why == "" && !(out.lv.Energy+out.lv.Err < ec) {
+		// The resonance's own η_r (it may move above η₀) is at or above
+		// the ceiling.
+		return out, "above the barrier", nil
+	}
 	return out, why, err
 }
 
@@ -109,16 +114,32 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	delta := eta - rl.evalEta
 	Fp := wronskSlope(&rl.res)
 	fpp := math.NaN() // F_r″/F_r′
-	if d := rl.evalEta - rl.prevEta; !math.IsNaN(rl.prevFp) && math.Abs(d) > 1e-7*sp && math.Abs(d) < 0.1*sp {
-		fpp = (Fp - rl.prevFp) / (d * Fp)
+	// F_r″ at evalEta from the cubic Hermite interpolant of F_r and F_r′
+	// at the last two evaluations, a step h apart: it errs by about
+	// h² F⁗/(12F′), which the carry multiplies by δ; F⁗/F′ is at most
+	// about (|F″/F′| + 1/spacing)³ (also when F carries an exponential
+	// factor e^(λη)). The carry is used only when that error is below
+	// 1e-12 of Γ.
+	h := rl.prevEta - rl.evalEta
+	carryErr := math.Inf(1)
+	if !math.IsNaN(rl.prevFp) && math.Abs(h) > 1e-9*sp && math.Abs(h) < 0.1*sp {
+		F := wronsk(&rl.res)
+		dF := rl.prevF - F - Fp*h
+		dD := rl.prevFp - Fp
+		fpp = 2 * (3*dF/h - dD) / (h * Fp)
+		k := math.Abs(fpp) + 1/sp
+		carryErr = math.Abs(delta) * h * h * k * k * k
 	}
-	if delta != 0 && (math.IsNaN(fpp) || math.Abs(delta) > 1e-6*sp) {
+	if delta != 0 && !(carryErr <= 1e-12 && math.Abs(delta) <= 1e-6*sp) {
 		rl.res = c.eval(eta, m, rl.S)
 		rl.evalEta = eta
 		rl.prevFp = math.NaN()
 		delta = 0
 		Fp = wronskSlope(&rl.res)
 		fpp = math.NaN()
+	}
+	if delta == 0 {
+		carryErr = 0
 	}
 	L, R := &rl.res.L, &rl.res.R
 	v := rstate{u: dual{0, 0}, w: dual{1, 0}}
@@ -175,8 +196,8 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	out.lv.Gamma = gamma
 	// Rounding, the level's own error carried through d ln Γ/dη, the
 	// neglected third order, and the first-order carry over δ (its
-	// second-order remainder).
-	carry := delta * delta * chi * chi
+	// second-order remainder, and the error of F_r″ over d).
+	carry := delta*delta*chi*chi + 2*carryErr
 	out.lv.GammaErr = gamma * (relRound + (math.Abs(chi1)+2*math.Abs(kappa2))*rl.err + 4*gc*gc + carry)
 	return "", nil
 }
@@ -284,49 +305,91 @@ func (c *calc) nth(n int, f float64) (stackLevel, error) {
 			return sl, nil
 		}
 	}
-	panic("unreachable")
+	return stackLevel{}, fmt.Errorf("exact: level %d: %w", n, tiltwell.ErrLevel)
 }
 
 // model returns a starting value for level n when the reference layer has
-// barriers on both sides (NaN otherwise): the zero-field level of the
-// reference well between its neighbours taken as semi-infinite barriers,
-// from the phase condition
+// confining sides (NaN otherwise): the zero-field level of the reference
+// well, from the phase condition
 //
-//	k + atan(μ_L k/κ_L) + atan(μ_R k/κ_R) = nπ,   κ = π√(μ(v − η)),
+//	k + δ_L + δ_R = nπ,   δ = atan2(k φ, ±w)
 //
-// shifted by the Stark shift of the infinite well of the equivalent width
-// L = nπ/k (at the field f L³ in its own units, scaled by 1/L²) from the
-// infinite solver's own starting models (second order and triangular).
+// with (φ, w) the zero-field solution that decays away from the well on
+// each side, carried through that side's layers to the well's edge (for a
+// single barrier δ = atan(μk/κ), κ = π√(μ(v − η))); then shifted by the
+// Stark shift of the infinite well of the equivalent width L = nπ/k (at
+// the field f L³ in its own units, scaled by 1/L²) from the infinite
+// solver's own starting models (second order and triangular).
 func (c *calc) model(n int) float64 {
 	r := c.ref()
-	_, _, vl, ml := c.layer(r - 1)
-	_, _, vr, mr := c.layer(r + 1)
-	if !(vl > 0 && vr > 0) || n > MaxLevels {
+	_, _, v0, _ := c.layer(0)
+	_, _, vn, _ := c.layer(c.n - 1)
+	if !(v0 > 0 && vn > 0) || n > MaxLevels {
 		return math.NaN()
 	}
-	g := func(k float64) (float64, float64) {
+	// side returns the phase δ of one side at wave number k and dδ/dk,
+	// or ok false if the side does not confine or its solution has a
+	// zero (the side holds a level of its own).
+	side := func(k float64, left bool) (d, dd float64, ok bool) {
 		eta := k * k / (math.Pi * math.Pi)
-		kl := math.Pi * math.Sqrt(ml*max(vl-eta, 0))
-		kr := math.Pi * math.Sqrt(mr*max(vr-eta, 0))
-		al, ar := math.Atan2(ml*k, kl), math.Atan2(mr*k, kr)
-		// d/dk atan2(μk, κ) with dκ/dk = −μk/κ: μ(κ² + μk²)/(κ(κ² + μ²k²)).
-		dl := ml * (kl*kl + ml*k*k) / (kl*(kl*kl+ml*ml*k*k) + 1e-300)
-		dr := mr * (kr*kr + mr*k*k) / (kr*(kr*kr+mr*mr*k*k) + 1e-300)
-		return k + al + ar - float64(n)*math.Pi, 1 + dl + dr
+		var st rstate
+		if left {
+			_, _, v, mu := c.layer(0)
+			if !(v > eta) {
+				return 0, 0, false
+			}
+			kap := math.Pi * math.Sqrt(mu*(v-eta))
+			st = rstate{u: dual{1, 0}, w: dual{kap / mu, -math.Pi * math.Pi / (2 * kap)}}
+			for j := 1; j < r; j++ {
+				lo, hi, v, mu := c.layer(j)
+				zeroFieldLayer(&st, hi-lo, v, mu, eta)
+			}
+		} else {
+			_, _, v, mu := c.layer(c.n - 1)
+			if !(v > eta) {
+				return 0, 0, false
+			}
+			kap := math.Pi * math.Sqrt(mu*(v-eta))
+			st = rstate{u: dual{1, 0}, w: dual{-kap / mu, math.Pi * math.Pi / (2 * kap)}}
+			for j := c.n - 2; j > r; j-- {
+				lo, hi, v, mu := c.layer(j)
+				zeroFieldLayer(&st, lo-hi, v, mu, eta)
+			}
+			st.w = dual{-st.w.v, -st.w.d}
+		}
+		if st.nodes != 0 || !(st.u.v > 0) {
+			return 0, 0, false
+		}
+		// δ = atan2(kφ, w); dη/dk = 2k/π².
+		y, x := k*st.u.v, st.w.v
+		e := 2 * k / (math.Pi * math.Pi)
+		yd := st.u.v + k*st.u.d*e
+		xd := st.w.d * e
+		return math.Atan2(y, x), (yd*x - y*xd) / (x*x + y*y), true
 	}
-	kt := math.Pi * math.Sqrt(min(vl, vr))
-	lo, hi := 0.0, min(float64(n)*math.Pi, kt)
-	if v, _ := g(hi); v < 0 {
+	g := func(k float64) (float64, float64, bool) {
+		dl, dld, ok1 := side(k, true)
+		dr, drd, ok2 := side(k, false)
+		return k + dl + dr - float64(n)*math.Pi, 1 + dld + drd, ok1 && ok2
+	}
+	kt := math.Pi * math.Sqrt(min(v0, vn))
+	lo, hi := 0.0, min(float64(n)*math.Pi, kt*(1-1e-12))
+	if v, _, ok := g(hi); !ok || v < 0 {
 		return math.NaN() // beyond the model's bound levels
 	}
-	// Start from the penetration estimate: each wall widens the well by
-	// about μ/κ.
-	k := float64(n) * math.Pi / (1 + ml/(math.Pi*math.Sqrt(ml*vl)) + mr/(math.Pi*math.Sqrt(mr*vr)))
+	// Start from the penetration estimate of the outer barriers.
+	_, _, _, ml := c.layer(0)
+	_, _, _, mr := c.layer(c.n - 1)
+	k := float64(n) * math.Pi / (1 + ml/(math.Pi*math.Sqrt(ml*v0)) + mr/(math.Pi*math.Sqrt(mr*vn)))
 	if !(k > lo && k < hi) {
 		k = 0.5 * (lo + hi)
 	}
-	for range 12 {
-		v, d := g(k)
+	// A start good to about 1e-8 is all the solver needs.
+	for range 8 {
+		v, d, ok := g(k)
+		if !ok {
+			return math.NaN()
+		}
 		if v > 0 {
 			hi = k
 		} else {
@@ -336,7 +399,7 @@ func (c *calc) model(n int) float64 {
 		if !(nk > lo && nk < hi) {
 			nk = 0.5 * (lo + hi)
 		}
-		if math.Abs(nk-k) < 1e-9*k {
+		if math.Abs(nk-k) < 1e-8*k {
 			k = nk
 			break
 		}

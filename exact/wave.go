@@ -79,6 +79,10 @@ func phaseM2(z float64) (theta, m2 float64) {
 // f < 0. It satisfies φ′(0) > 0 and has n − 1 nodes in
 // (0, 1). Errors as for [Solver.Levels] with n in place of k.
 //
+// For a finite Stack it returns a [*StackWave] (or its mirror image), which
+// extends over the whole line and implements [tiltwell.Spread]: positive
+// at the first interface, with n − 1 nodes between the outer interfaces.
+//
 // Special cases are:
 //
 //	|f| < 1e-20: φ_n(ξ) = √2 sin(nπξ)
@@ -191,6 +195,14 @@ func gsum(x0, x1 float64) float64 {
 //
 //	|f| < 1e-20: 2 C_n f (second-order perturbation theory)
 //	f < 0: −Dipole(|f|, n)
+//
+// For a finite Stack the dipole is ⟨ξ − ½⟩ of the [*StackWave], by
+// Gauss–Legendre quadrature over its support piece by piece (12 points per
+// step of the solution): dη/df for a bound level, and within about Γ of
+// dη_r/df for a quasi-bound one. Measured against five-point differences
+// of η_r (h = 1e-4) on four stacks at |f| ≤ 3: 4e-12 for bound levels,
+// 2e-11 where Γ < 1e-10, 7e-8 where Γ < 1e-6, and up to 0.04 for broad
+// levels (Γ = 0.01–0.3).
 func (s Solver) Dipole(f float64, n int) (float64, error) {
 	if !s.Stack.Infinite() {
 		return s.stackDipole(f, n)

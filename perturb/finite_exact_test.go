@@ -10,6 +10,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/exact/exacttest"
 )
 
 // randomWells is the number of random wells in exactWells: 20 in the
@@ -152,4 +153,20 @@ func TestFiniteAgainstExact(t *testing.T) {
 		t.Logf("%s: %d points, %d below the true error, %d more than 10× above, worst ratio %.3g", c.name, c.tl.points, c.tl.under, c.tl.pess, c.tl.worst)
 	}
 	t.Logf("quasiclassical width / exact width in [%.3g, %.3g]", rlo, rhi)
+}
+
+// TestFiniteCheck holds both orders on the GaAs-like demo well (barrier
+// 4.62 E₁, mass ratio 1.372) to the exact finite-barrier reference with
+// exact.Check and the project's pessimism limit, at fields inside both
+// levels' validity limits (a cross-check inside the project).
+func TestFiniteCheck(t *testing.T) {
+	t.Parallel()
+	st, err := tiltwell.FiniteWell(4.62, 1.372)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, order := range []int{1, 2} {
+		exacttest.TestSolver(t, Solver{Order: order, Stack: st},
+			exact.Grid{Stack: st, Fields: []float64{0, 0.05, 0.2, -0.2, 0.5, -0.8, 1}, Levels: 2, MaxRatio: 10})
+	}
 }

@@ -40,6 +40,52 @@ func BenchmarkLevels(b *testing.B) {
 	}
 }
 
+// BenchmarkFiniteLevels times Levels on a finite well, the invented
+// GaAs/Al₀.₃Ga₀.₇As-like electron well of issue 12 (v = 4.3, μ = 1.37, two
+// levels confined up to f ≈ 1) and a deep well (v = 50, μ = 1.37), for
+// both rules and the exact reference in one run. ns/level is the time per
+// call divided by k.
+func BenchmarkFiniteLevels(b *testing.B) {
+	for _, w := range []struct {
+		name string
+		v    float64
+		ks   []int
+	}{{"demo", 4.3, []int{1, 2}}, {"deep", 50, []int{1, 3, 6}}} {
+		st, err := tiltwell.FiniteWell(w.v, 1.37)
+		if err != nil {
+			b.Fatal(err)
+		}
+		methods := []struct {
+			name string
+			s    tiltwell.Solver
+		}{
+			{"wkb", wkb.Solver{Stack: st}},
+			{"wkb-plain", wkb.Solver{Stack: st, Plain: true}},
+			{"exact", exact.Solver{Stack: st}},
+		}
+		for _, m := range methods {
+			for _, k := range w.ks {
+				for _, f := range []float64{0, 0.1, 1, 3} {
+					if _, err := m.s.Levels(nil, f, k); err != nil {
+						continue // fewer than k confined
+					}
+					b.Run(fmt.Sprintf("stack=%s/method=%s/k=%d/f=%g", w.name, m.name, k, f), func(b *testing.B) {
+						dst := make([]tiltwell.Level, 0, k)
+						b.ReportAllocs()
+						var err error
+						for b.Loop() {
+							if dst, err = m.s.Levels(dst, f, k); err != nil {
+								b.Fatal(err)
+							}
+						}
+						b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*k), "ns/level")
+					})
+				}
+			}
+		}
+	}
+}
+
 // BenchmarkWavefunction times construction (normalisation included) and one
 // evaluation of the uniform wavefunction.
 func BenchmarkWavefunction(b *testing.B) {

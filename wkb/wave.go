@@ -9,7 +9,10 @@ import (
 )
 
 // Wavefunction returns the normalized wavefunction of level n at reduced
-// field f, at the energy of the rule the Solver selects. It is the uniform
+// field f, at the energy of the rule the Solver selects. With a finite
+// well it covers the whole line and implements [tiltwell.Spread] (see the
+// package documentation, "Finite barriers"); for infinite walls it is the
+// uniform
 // (Langer) form of the level, which for the linear potential of the well is
 // built from the Airy modulus M and phase θ (DLMF §9.8):
 //
@@ -42,6 +45,12 @@ import (
 func (s Solver) Wavefunction(f float64, n int) (tiltwell.Wavefunction, error) {
 	if err := tiltwell.CheckArgs("wkb", f, n, MaxLevels, MaxField); err != nil {
 		return nil, err
+	}
+	if !s.Stack.Infinite() {
+		if err := checkStack(s.Stack); err != nil {
+			return nil, err
+		}
+		return s.finiteWavefunction(f, n)
 	}
 	af, mirrored := tiltwell.Fold(f)
 	if af < tinyField {

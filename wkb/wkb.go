@@ -49,6 +49,14 @@ const MaxLevels = 10000
 // coordinate x₁ = (f − e)/(f/π)^(2/3) (the wall's distance past the turning
 // point in Airy lengths (π² f)^(−1/3)); see the package documentation.
 //
+// With a Stack holding a single finite well the rules carry the step
+// phases of the abrupt interfaces and the levels carry the quasiclassical
+// escape width Γ through the downhill barrier; see the package
+// documentation, "Finite barriers". A level that is not confined by the
+// method's criterion (above a barrier at its interface, within 0.6 ħ of
+// under-barrier action of the downhill barrier's top, or too broad for
+// the first-order width) ends the list with a [*tiltwell.ConfinedError].
+//
 // Special cases are:
 //
 //	Levels(dst, 0, k) = n² for n = 1..k, with Err = 0 (both rules are exact
@@ -56,12 +64,21 @@ const MaxLevels = 10000
 //	Levels(dst, −f, k) = Levels(dst, f, k)
 //	Levels(dst, f, k) for |f| < 1e-150 is treated as f = 0 (the shift is
 //	    below 1e-300)
+//	with a finite well, Levels(dst, 0, k) = the square well's bound levels
+//	    (internal/squarewell), with Γ = 0, and a ConfinedError past them;
+//	    Levels(dst, −f, k) = the levels of the mirrored stack at f
 type Solver struct {
 	// Plain selects the textbook rule, with its jump at η = f/2 and its
 	// wrong-signed ground-level shift at low field. Its Err is the size of
 	// the connection correction (the distance to the connection rule's
 	// level) plus the connection rule's own Err.
 	Plain bool
+	// Stack is the layer structure. The zero Stack is the well with
+	// infinitely high walls; a single finite well (three layers, see
+	// [tiltwell.FiniteWell] and [tiltwell.AsymmetricWell]) is solved by
+	// the finite-well rules (see the package documentation). Other
+	// stacks give an error wrapping [errors.ErrUnsupported].
+	Stack tiltwell.Stack
 }
 
 var _ tiltwell.WaveSolver = Solver{}
@@ -99,6 +116,12 @@ func (s Solver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level
 	dst = dst[:0]
 	if err := tiltwell.CheckArgs("wkb", f, k, MaxLevels, MaxField); err != nil {
 		return dst, err
+	}
+	if !s.Stack.Infinite() {
+		if err := checkStack(s.Stack); err != nil {
+			return dst, err
+		}
+		return s.finiteLevels(dst, f, k)
 	}
 	af, _ := tiltwell.Fold(f)
 	ea := airyEnergy(af)

@@ -1,10 +1,12 @@
-// Levels prints the confined levels of the tilted infinite well computed by
-// one method, as machine-readable tab-separated rows: the entry point for
-// scripts and for regression tests in other languages.
+// Levels prints the confined levels of a tilted well computed by one
+// method, as machine-readable tab-separated rows: the entry point for
+// scripts and for regression tests in other languages. The well has
+// infinitely high walls unless barrier flags give it finite barriers.
 //
 // Usage:
 //
 //	go run ./examples/levels -method exact -f 0,1,3,10 -n 5
+//	go run ./examples/levels -method exact -f 0,1,2 -n 3 -barrier 4.62 -barrier-mass 1.372
 //
 // Flags:
 //
@@ -13,18 +15,25 @@
 //	-n K            number of levels per field (default 5)
 //	-basis-size N   sine states for -method basis (0: the package default)
 //	-wkb-plain      the plain WKB rules with their jump at η = f/2
+//	-barrier V      both barrier heights, in units of E₁ of the well
+//	-barrier-mass M both barriers' mass ratio m_barrier/m_well (default 1)
+//	-barrier-left V, -barrier-right V, -mass-left M, -mass-right M
+//	                one side at a time (both heights must be given)
 //
 // Output: a header line "method f n energy err bound gamma gamma_err", then
 // one row per field and level. energy is η = E/E₁ and err the method's own
 // error estimate in units of E₁; gamma is the escape width Γ in units of
-// E₁ (0 for the infinite walls every method here solves) and gamma_err
-// its estimate; all four are printed with full float64 precision (strconv
+// E₁ (0 for infinite walls and for bound states; a method that does not
+// compute escape reports 0 and puts its estimate of the missing width in
+// gamma_err) and gamma_err its estimate; all four are printed with full float64 precision (strconv
 // 'g', -1). bound is "rigorous" for a proven bound and "estimate"
 // otherwise. Rows are written as they are computed, through a buffer, so
 // memory does not grow with the number of fields or levels.
 //
 // A method that answers outside its range of validity still prints its
-// rows and reports the range error on stderr, exiting with status 1. Bad
+// rows and reports the range error on stderr, exiting with status 1; so
+// does a finite well that confines fewer than -n levels at a field (the
+// confined ones are printed). Bad
 // flags or values print one line on stderr and exit with status 2: a
 // field that is not a number, is NaN or infinite, overflows float64
 // (-f 1e400) or underflows to zero (-f 1e-400; write 0 for zero field).
@@ -55,18 +64,24 @@ type options struct {
 	n         int
 	basisSize int
 	wkbPlain  bool
+	stack     tiltwell.Stack // the zero Stack: infinite walls
 }
 
 // errHelp asks for the usage text: printed to stdout, exit status 0.
 var errHelp = errors.New("help requested")
 
 // usage is the text -h prints.
-const usage = `usage: levels [-method NAME] [-f LIST] [-n K] [-basis-size N] [-wkb-plain]
+const usage = `usage: levels [-method NAME] [-f LIST] [-n K] [-basis-size N] [-wkb-plain] [barrier flags]
   -method NAME    exact, perturb1, perturb2, variational, wkb, wkb-plain or basis (default exact)
   -f LIST         comma-separated reduced fields f = F/F₀ (default 0,1,3,10)
   -n K            number of levels per field (default 5)
   -basis-size N   sine states for -method basis (0: the package default)
   -wkb-plain      the plain WKB rules (same as -method wkb-plain)
+Barriers (units of E₁ of the well; none given: infinitely high walls):
+  -barrier V      both barrier heights
+  -barrier-mass M both barriers' mass ratio m_barrier/m_well (default 1)
+  -barrier-left V, -barrier-right V, -mass-left M, -mass-right M
+                  one side at a time
 Output: tab-separated rows "method f n energy err bound gamma gamma_err".
 `
 
@@ -100,7 +115,11 @@ func solver(o *options) (tiltwell.Solver, error) {
 		if o.basisSize < 0 {
 			return nil, usageError{fmt.Sprintf("-basis-size %d: must be 0 (default) or positive", o.basisSize)}
 		}
-		return basis.Solver{Size: o.basisSize}, nil
+		m.Solver = basis.Solver{Size: o.basisSize}
+	}
+	m, err := catalog.WithStack(m, o.stack)
+	if err != nil {
+		return nil, usageError{err.Error()}
 	}
 	return m.Solver, nil
 }
@@ -115,11 +134,17 @@ func parse(args []string) (options, error) {
 	fs.IntVar(&o.n, "n", 5, "levels per field")
 	fs.IntVar(&o.basisSize, "basis-size", 0, "sine states for -method basis")
 	fs.BoolVar(&o.wkbPlain, "wkb-plain", false, "plain WKB rules")
+	var b barrierFlags
+	b.register(fs)
 	if err := fs.Parse(args); err != nil {
 		if errors.Is(err, flag.ErrHelp) {
 			return o, errHelp
 		}
 		return o, usageError{err.Error()}
+	}
+	var err error
+	if o.stack, err = b.stack(fs); err != nil {
+		return o, err
 	}
 	if fs.NArg() > 0 {
 		return o, usageError{fmt.Sprintf("unexpected argument %q", fs.Arg(0))}
@@ -141,6 +166,62 @@ func parse(args []string) (options, error) {
 		o.fields = append(o.fields, v)
 	}
 	return o, nil
+}
+
+// barrierFlags are the barrier flags as given.
+type barrierFlags struct {
+	both, left, right  float64
+	mass, massL, massR float64
+}
+
+func (b *barrierFlags) register(fs *flag.FlagSet) {
+	fs.Float64Var(&b.both, "barrier", 0, "both barrier heights (E₁)")
+	fs.Float64Var(&b.left, "barrier-left", 0, "left barrier height (E₁)")
+	fs.Float64Var(&b.right, "barrier-right", 0, "right barrier height (E₁)")
+	fs.Float64Var(&b.mass, "barrier-mass", 1, "both barriers' mass ratio")
+	fs.Float64Var(&b.massL, "mass-left", 1, "left barrier's mass ratio")
+	fs.Float64Var(&b.massR, "mass-right", 1, "right barrier's mass ratio")
+}
+
+// stack returns the well the barrier flags describe: the zero Stack
+// (infinite walls) when no height is given.
+func (b *barrierFlags) stack(fs *flag.FlagSet) (tiltwell.Stack, error) {
+	set := map[string]bool{}
+	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	side := set["barrier-left"] || set["barrier-right"]
+	switch {
+	case set["barrier"] && side:
+		return tiltwell.Stack{}, usageError{"give -barrier or -barrier-left and -barrier-right, not both"}
+	case side && !(set["barrier-left"] && set["barrier-right"]):
+		return tiltwell.Stack{}, usageError{"-barrier-left and -barrier-right go together"}
+	case set["barrier-mass"] && (set["mass-left"] || set["mass-right"]):
+		return tiltwell.Stack{}, usageError{"give -barrier-mass or -mass-left and -mass-right, not both"}
+	}
+	if !set["barrier"] && !side {
+		for _, name := range []string{"barrier-mass", "mass-left", "mass-right"} {
+			if set[name] {
+				return tiltwell.Stack{}, usageError{fmt.Sprintf("-%s needs a barrier height (-barrier V): without one the walls are infinitely high", name)}
+			}
+		}
+		return tiltwell.Stack{}, nil
+	}
+	vl, vr, ml, mr := b.left, b.right, b.massL, b.massR
+	if set["barrier"] {
+		vl, vr = b.both, b.both
+	}
+	if set["barrier-mass"] {
+		ml, mr = b.mass, b.mass
+	}
+	st, err := tiltwell.AsymmetricWell(vl, ml, vr, mr)
+	if err != nil {
+		var le *tiltwell.LayerError
+		if errors.As(err, &le) {
+			side := map[int]string{0: "left barrier", 2: "right barrier"}[le.Layer]
+			return tiltwell.Stack{}, usageError{fmt.Sprintf("%s %s %v: %s", side, le.What, le.Value, le.Why)}
+		}
+		return tiltwell.Stack{}, usageError{err.Error()}
+	}
+	return st, nil
 }
 
 // parseField parses one reduced field of the -f list.
@@ -245,11 +326,13 @@ func write(w *bufio.Writer, s tiltwell.Solver, o options) (int, error) {
 		for i, f := range c.fields {
 			lv := c.levels[i*o.n : i*o.n+c.count[i]]
 			if err := c.errs[i]; err != nil {
-				if len(lv) == 0 || !errors.Is(err, tiltwell.ErrOutOfRange) {
+				if !usable(lv, err) {
 					// No usable result: bad input for this method.
 					return 2, err
 				}
-				soft = err
+				if soft == nil {
+					soft = err
+				}
 			}
 			buf = append(buf[:0], o.method...)
 			buf = append(buf, '\t')
@@ -303,7 +386,7 @@ func solve(s tiltwell.Solver, o options, per int, free <-chan *chunk, full chan<
 			lv, err := levels(s, dst, f, o.n)
 			c.count[i] = copy(dst[:cap(dst)], lv[:min(len(lv), o.n)])
 			c.errs[i] = err
-			if err != nil && (len(lv) == 0 || !errors.Is(err, tiltwell.ErrOutOfRange)) {
+			if err != nil && !usable(lv, err) {
 				c.fields = c.fields[:i+1]
 				stop = true
 				break
@@ -318,6 +401,17 @@ func solve(s tiltwell.Solver, o options, per int, free <-chan *chunk, full chan<
 			return
 		}
 	}
+}
+
+// usable reports whether levels returned with err are still printed: a
+// method answering outside its range of validity, or a finite well
+// confining fewer levels than asked for.
+func usable(lv []tiltwell.Level, err error) bool {
+	if len(lv) == 0 {
+		return false
+	}
+	_, confined := tiltwell.Confined(err)
+	return confined || errors.Is(err, tiltwell.ErrOutOfRange)
 }
 
 // levels calls s.Levels, turning a panic into an error.

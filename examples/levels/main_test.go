@@ -7,6 +7,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
@@ -179,5 +181,73 @@ func TestHelp(t *testing.T) {
 	code, err := run([]string{"-h"}, &out)
 	if code != 0 || err != nil || !strings.Contains(out.String(), "-basis-size") {
 		t.Errorf("exit %d, err %v, output %q", code, err, out.String())
+	}
+}
+
+// TestBarriers: the barrier flags give a finite well. Its zero-field
+// levels solve the textbook finite-well condition (checked in the exact
+// and squarewell packages; here the rows are held to exact.Solver with the
+// same stack), escape widths appear under field, the mirror of an
+// asymmetric well needs the mirrored flags, and a well that confines
+// fewer levels than -n prints the confined ones and exits with status 1.
+func TestBarriers(t *testing.T) {
+	rows := func(args ...string) ([][]string, int, error) {
+		var out strings.Builder
+		code, err := run(args, &out)
+		var rs [][]string
+		for _, l := range strings.Split(strings.TrimSuffix(out.String(), "\n"), "\n")[1:] {
+			rs = append(rs, strings.Split(l, "\t"))
+		}
+		return rs, code, err
+	}
+	st, err := tiltwell.AsymmetricWell(4, 1.2, 6, 1.5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rs, code, err := rows("-method", "exact", "-f", "0,2", "-n", "2", "-barrier-left", "4", "-barrier-right", "6", "-mass-left", "1.2", "-mass-right", "1.5")
+	if code != 0 || err != nil || len(rs) != 4 {
+		t.Fatalf("exit %d, %v, %d rows", code, err, len(rs))
+	}
+	for i, r := range rs {
+		f, _ := strconv.ParseFloat(r[1], 64)
+		want, err := exact.Solver{Stack: st}.Levels(nil, f, 2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		w := want[i%2]
+		if r[3] != strconv.FormatFloat(w.Energy, 'g', -1, 64) || r[6] != strconv.FormatFloat(w.Gamma, 'g', -1, 64) {
+			t.Errorf("row %q, want energy %v gamma %v", r, w.Energy, w.Gamma)
+		}
+		if g, _ := strconv.ParseFloat(r[6], 64); (f == 0) != (g == 0) {
+			t.Errorf("row %q: gamma %g at f = %g", r, g, f)
+		}
+	}
+	// The mirror: -f with the sides swapped gives the same levels.
+	a, _, _ := rows("-f", "3", "-n", "2", "-barrier-left", "4", "-barrier-right", "6")
+	b, _, _ := rows("-f", "-3", "-n", "2", "-barrier-left", "6", "-barrier-right", "4")
+	for i := range a {
+		if a[i][3] != b[i][3] || a[i][6] != b[i][6] {
+			t.Errorf("mirror: %q vs %q", a[i], b[i])
+		}
+	}
+	// Fewer confined than asked: the confined rows, then exit status 1.
+	rs, code, err = rows("-f", "0", "-n", "9", "-barrier", "4.62", "-barrier-mass", "1.372")
+	if code != 1 || err == nil || len(rs) != 3 || !strings.Contains(err.Error(), "confines 3") {
+		t.Errorf("-n 9 in a 3-level well: exit %d, %v, %d rows", code, err, len(rs))
+	}
+	// Bad combinations.
+	for _, args := range [][]string{
+		{"-barrier", "4", "-barrier-left", "3", "-barrier-right", "3"},
+		{"-barrier-left", "3"},
+		{"-barrier-mass", "2"},
+		{"-barrier", "4", "-barrier-mass", "2", "-mass-left", "1"},
+		{"-barrier", "NaN"},
+		{"-barrier", "4", "-barrier-mass", "0"},
+		{"-barrier", "4", "-barrier-mass", "-1"},
+	} {
+		var out strings.Builder
+		if code, err := run(args, &out); code != 2 || err == nil {
+			t.Errorf("%q: exit %d, %v; want status 2 and a message", args, code, err)
+		}
 	}
 }

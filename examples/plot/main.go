@@ -14,10 +14,16 @@
 // carriers' escape times (log scale) against the field from 0 to -kvmax
 // kV/cm, from tiltwell.Device with the exact finite-barrier solver.
 //
+// With -finite it draws the electron of the 10 nm GaAs demo well with
+// finite barriers beside the same well with infinite walls: the Stark
+// shifts of the two lowest levels and the escape time of each level
+// against the field in kV/cm.
+//
 // Usage:
 //
 //	go run ./examples/plot -o docs/levels.png [-fmax 30] [-n 3]
 //	go run ./examples/plot -modulator -o docs/modulator.png [-kvmax 200]
+//	go run ./examples/plot -finite -o docs/finite.png [-kvmax 200]
 package main
 
 import (
@@ -78,17 +84,22 @@ func main() {
 	fmax := flag.Float64("fmax", 30, "largest reduced field")
 	k := flag.Int("n", 3, "number of levels")
 	mod := flag.Bool("modulator", false, "draw the demo structures' transitions in physical units instead")
-	kvMax := flag.Float64("kvmax", 200, "largest field in kV/cm, with -modulator")
+	fin := flag.Bool("finite", false, "draw a finite well's levels and escape times beside the infinite well's instead")
+	kvMax := flag.Float64("kvmax", 200, "largest field in kV/cm, with -modulator or -finite")
 	flag.Parse()
 	ext := strings.TrimPrefix(strings.ToLower(filepath.Ext(*out)), ".")
 	if ext != "png" && ext != "svg" {
 		fail(fmt.Errorf("-o %q: want a .png or .svg file", *out))
 	}
-	if *mod {
+	if *mod || *fin {
 		if !(*kvMax > 0 && *kvMax <= 400) {
 			fail(fmt.Errorf("-kvmax %v: want 0 < kvmax ≤ 400 kV/cm", *kvMax))
 		}
-		if err := renderModulator(*out, ext, *kvMax, 201); err != nil {
+		render := renderModulator
+		if *fin {
+			render = renderFinite
+		}
+		if err := render(*out, ext, *kvMax, 201); err != nil {
 			fail(err)
 		}
 		return

@@ -60,3 +60,24 @@ func TestRenderModulator(t *testing.T) {
 		t.Errorf("picture is %v, want six panels", b)
 	}
 }
+
+// TestRenderFinite draws the -finite picture (few fields, for speed) and
+// reads the PNG back.
+func TestRenderFinite(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "f.png")
+	if err := renderFinite(path, "png", 150, 16); err != nil {
+		t.Fatal(err)
+	}
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	img, err := png.Decode(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if b := img.Bounds(); b.Dx() < 600 || b.Dy() < 250 {
+		t.Errorf("picture is %v, want two panels", b)
+	}
+}

@@ -4,6 +4,8 @@
 package catalog
 
 import (
+	"errors"
+	"fmt"
 	"strings"
 
 	"github.com/tiltwell/tiltwell"
@@ -53,4 +55,27 @@ func Names() string {
 		s = append(s, m.Name)
 	}
 	return strings.Join(s, ", ")
+}
+
+// WithStack returns m set up for the layers st (the zero Stack keeps the
+// infinite walls). It returns an error wrapping errors.ErrUnsupported for
+// a method that does not solve finite barriers.
+func WithStack(m Method, st tiltwell.Stack) (Method, error) {
+	if st.Infinite() {
+		return m, nil
+	}
+	switch s := m.Solver.(type) {
+	case exact.Solver:
+		s.Stack = st
+		m.Solver = s
+	case perturb.Solver:
+		s.Stack = st
+		m.Solver = s
+	case wkb.Solver:
+		s.Stack = st
+		m.Solver = s
+	default:
+		return Method{}, fmt.Errorf("method %s does not solve finite barriers: %w", m.Name, errors.ErrUnsupported)
+	}
+	return m, nil
 }
