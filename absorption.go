@@ -258,6 +258,12 @@ func (a Absorption) Units(ab Absorber) Units {
 
 // Limits of a spectrum.
 const (
+	// MaxBroadening is the largest Gaussian standard deviation or
+	// Lorentzian FWHM of a line that [Absorption.Spectrum] accepts, in
+	// meV: 1 keV, far beyond any absorption line, and small enough that
+	// the sums and squares of the continuum stay finite.
+	MaxBroadening = 1e6
+
 	// MaxLattice is the largest number of points of the lattice on which
 	// [Absorption.Spectrum] computes one transition's continuum: the
 	// energy range (plus 32 broadening widths) divided by a step of about
@@ -303,7 +309,8 @@ const (
 // HeavyHole or LightHole, whose Energy is not a finite positive number,
 // whose Overlap2 lies outside [0, 1], whose Binding, Density or Width is
 // negative or not finite, whose binding puts the exciton at or below zero
-// energy, or whose Reduced mass is not a finite positive number; and for
+// energy, whose Reduced mass is not a finite positive number, or whose
+// broadening exceeds [MaxBroadening]; and for
 // no photon energies or one that is not a finite positive number; and
 // for a continuum that would need more than [MaxLattice] lattice points
 // (a broadening, or a Sommerfeld Rydberg E_B/4, far narrower than the
@@ -336,6 +343,9 @@ func (a Absorption) Spectrum(dst []float64, ab Absorber, photon []float64) ([]fl
 		}
 		gamma := (l.Width + a.Homogeneous) / 2 // HWHM
 		sig := math.Hypot(sigma, l.Slope*a.WidthSpread)
+		if !(sig <= MaxBroadening && 2*gamma <= MaxBroadening) {
+			return dst, fmt.Errorf("tiltwell: absorption: %v: broadening σ = %g meV, Γ = %g meV beyond %g meV: %w", l.Transition, sig, 2*gamma, float64(MaxBroadening), ErrUnits)
+		}
 		if l.Density > 0 {
 			peak := l.Energy - l.Binding/1e3
 			amp := 2 * w * l.Density

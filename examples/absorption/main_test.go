@@ -25,6 +25,9 @@ func runOK(t *testing.T, args ...string) string {
 // header; the e1–hh1 exciton of the GaAs demo binds by 7.87 meV at zero
 // field and less at 150 kV/cm.
 func TestExcitonRows(t *testing.T) {
+	if raceEnabled {
+		t.Skip("the default run's 32 exciton bindings take half a minute under the race detector; TestSpectrumRows runs the same code")
+	}
 	out := runOK(t, "-excitons")
 	lines := strings.Split(strings.TrimSpace(out), "\n")
 	if want := "structure\tfield_kV_cm\ttransition\tenergy_eV\tbinding_meV\toverlap2"; lines[0] != want {
