@@ -1,0 +1,7 @@
+//go:build !race
+
+package faddeeva
+
+// raceEnabled reports whether the race detector is on: the slowest tests
+// then check a sample.
+const raceEnabled = false
