@@ -134,8 +134,7 @@ func parse(args []string) (options, error) {
 	fs.IntVar(&o.n, "n", 5, "levels per field")
 	fs.IntVar(&o.basisSize, "basis-size", 0, "sine states for -method basis")
 	fs.BoolVar(&o.wkbPlain, "wkb-plain", false, "plain WKB rules")
-	var b barrierFlags
-	b.register(fs)
+	b := catalog.BarrierFlags(fs)
 	if err := fs.Parse(args); err != nil {
 		if errors.Is(err, flag.ErrHelp) {
 			return o, errHelp
@@ -143,8 +142,8 @@ func parse(args []string) (options, error) {
 		return o, usageError{err.Error()}
 	}
 	var err error
-	if o.stack, err = b.stack(fs); err != nil {
-		return o, err
+	if o.stack, err = b.Stack(fs); err != nil {
+		return o, usageError{err.Error()}
 	}
 	if fs.NArg() > 0 {
 		return o, usageError{fmt.Sprintf("unexpected argument %q", fs.Arg(0))}
@@ -166,62 +165,6 @@ func parse(args []string) (options, error) {
 		o.fields = append(o.fields, v)
 	}
 	return o, nil
-}
-
-// barrierFlags are the barrier flags as given.
-type barrierFlags struct {
-	both, left, right  float64
-	mass, massL, massR float64
-}
-
-func (b *barrierFlags) register(fs *flag.FlagSet) {
-	fs.Float64Var(&b.both, "barrier", 0, "both barrier heights (E₁)")
-	fs.Float64Var(&b.left, "barrier-left", 0, "left barrier height (E₁)")
-	fs.Float64Var(&b.right, "barrier-right", 0, "right barrier height (E₁)")
-	fs.Float64Var(&b.mass, "barrier-mass", 1, "both barriers' mass ratio")
-	fs.Float64Var(&b.massL, "mass-left", 1, "left barrier's mass ratio")
-	fs.Float64Var(&b.massR, "mass-right", 1, "right barrier's mass ratio")
-}
-
-// stack returns the well the barrier flags describe: the zero Stack
-// (infinite walls) when no height is given.
-func (b *barrierFlags) stack(fs *flag.FlagSet) (tiltwell.Stack, error) {
-	set := map[string]bool{}
-	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
-	side := set["barrier-left"] || set["barrier-right"]
-	switch {
-	case set["barrier"] && side:
-		return tiltwell.Stack{}, usageError{"give -barrier or -barrier-left and -barrier-right, not both"}
-	case side && !(set["barrier-left"] && set["barrier-right"]):
-		return tiltwell.Stack{}, usageError{"-barrier-left and -barrier-right go together"}
-	case set["barrier-mass"] && (set["mass-left"] || set["mass-right"]):
-		return tiltwell.Stack{}, usageError{"give -barrier-mass or -mass-left and -mass-right, not both"}
-	}
-	if !set["barrier"] && !side {
-		for _, name := range []string{"barrier-mass", "mass-left", "mass-right"} {
-			if set[name] {
-				return tiltwell.Stack{}, usageError{fmt.Sprintf("-%s needs a barrier height (-barrier V): without one the walls are infinitely high", name)}
-			}
-		}
-		return tiltwell.Stack{}, nil
-	}
-	vl, vr, ml, mr := b.left, b.right, b.massL, b.massR
-	if set["barrier"] {
-		vl, vr = b.both, b.both
-	}
-	if set["barrier-mass"] {
-		ml, mr = b.mass, b.mass
-	}
-	st, err := tiltwell.AsymmetricWell(vl, ml, vr, mr)
-	if err != nil {
-		var le *tiltwell.LayerError
-		if errors.As(err, &le) {
-			side := map[int]string{0: "left barrier", 2: "right barrier"}[le.Layer]
-			return tiltwell.Stack{}, usageError{fmt.Sprintf("%s %s %v: %s", side, le.What, le.Value, le.Why)}
-		}
-		return tiltwell.Stack{}, usageError{err.Error()}
-	}
-	return st, nil
 }
 
 // parseField parses one reduced field of the -f list.

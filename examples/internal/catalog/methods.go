@@ -74,6 +74,12 @@ func WithStack(m Method, st tiltwell.Stack) (Method, error) {
 	case wkb.Solver:
 		s.Stack = st
 		m.Solver = s
+	case variational.Solver:
+		s.Stack = st
+		m.Solver = s
+	case basis.Solver:
+		s.Stack = st
+		m.Solver = s
 	default:
 		return Method{}, fmt.Errorf("method %s does not solve finite barriers: %w", m.Name, errors.ErrUnsupported)
 	}
