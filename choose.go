@@ -19,13 +19,14 @@ type Candidate struct {
 type Trial struct {
 	// Name is the candidate's name.
 	Name string
-	// Worst is the level with the largest error estimate Err over all the
-	// fields and levels asked for, and F the reduced field where it was
-	// found. If the candidate returned an error, Worst is the zero Level.
+	// Worst is the level with the largest error estimate, max(Err,
+	// GammaErr), over all the fields and levels asked for, and F the
+	// reduced field where it was found. If the candidate returned an
+	// error, Worst is the zero Level.
 	Worst Level
 	F     float64
-	// Met reports whether every level's Err was at most the tolerance and
-	// the candidate returned no error.
+	// Met reports whether every level's Err and GammaErr were at most the
+	// tolerance and the candidate returned no error.
 	Met bool
 	// Err is the first error the candidate returned (in field order), or
 	// an error describing a broken [Solver] contract (too few levels, a NaN
@@ -84,7 +85,9 @@ const (
 // Choose returns the cheapest candidate whose own error estimates meet the
 // tolerance: a candidate meets tol if, at every reduced field in fields,
 // Levels(dst, f, k) returns no error and every one of the k levels has
-// Err ≤ tol (tol is absolute, in units of E₁). The cost is the measured
+// Err ≤ tol and GammaErr ≤ tol (tol is absolute, in units of E₁: the
+// escape width Γ is the imaginary part of the level, and a method that
+// cannot see escape declares the width it misses in GammaErr). The cost is the measured
 // time per level on this machine (see [Stats]); of two equally cheap
 // candidates the earlier one wins.
 //
@@ -190,12 +193,12 @@ func try(c Candidate, tol float64, fields []float64, k int, dst []Level) (tr Tri
 			return Trial{Name: c.Name, Err: fmt.Errorf("tiltwell: choose: candidate %q at f = %g: %w", c.Name, f, err)}
 		}
 		for _, l := range dst {
-			if l.Err > worst {
-				worst = l.Err
+			if e := max(l.Err, l.GammaErr); e > worst {
+				worst = e
 				tr.Worst = l
 				tr.F = f
 			}
-			if !(l.Err <= tol) {
+			if !(l.Err <= tol && l.GammaErr <= tol) {
 				tr.Met = false
 			}
 		}

@@ -421,3 +421,40 @@ func BenchmarkChoose(b *testing.B) {
 		})
 	}
 }
+
+// widthSolver is flatSolver that also declares an escape width it cannot
+// see, as a method blind to escape does on a finite well.
+type widthSolver struct {
+	flatSolver
+	gammaErr float64
+}
+
+func (s widthSolver) Levels(dst []tiltwell.Level, f float64, k int) ([]tiltwell.Level, error) {
+	dst, err := s.flatSolver.Levels(dst, f, k)
+	for i := range dst {
+		dst[i].GammaErr = s.gammaErr
+	}
+	return dst, err
+}
+
+// TestChooseGammaErr: the tolerance holds for the escape width too: a
+// candidate with accurate energies but an escape width uncertain by more
+// than the tolerance does not meet it (common practice, no source: Γ is
+// the imaginary part of the level).
+func TestChooseGammaErr(t *testing.T) {
+	t.Parallel()
+	cands := []tiltwell.Candidate{
+		{Name: "blind", Solver: widthSolver{flatSolver{err: 1e-9}, 1e-3}},
+		{Name: "sighted", Solver: widthSolver{flatSolver{err: 1e-9}, 1e-9}},
+	}
+	ch, err := tiltwell.Choose(cands, 1e-6, []float64{0, 1}, 2)
+	if err != nil || ch.Name != "sighted" {
+		t.Fatalf("chose %q, %v; want sighted", ch.Name, err)
+	}
+	if ch.Trials[0].Met || ch.Trials[0].Worst.GammaErr != 1e-3 {
+		t.Errorf("blind trial %+v: want not met, worst GammaErr 1e-3", ch.Trials[0])
+	}
+	if ch, err := tiltwell.Choose(cands, 1e-2, []float64{0, 1}, 2); err != nil || !ch.Trials[0].Met {
+		t.Errorf("tolerance 1e-2: %+v, %v; want blind to meet it", ch.Trials, err)
+	}
+}

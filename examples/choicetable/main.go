@@ -8,9 +8,16 @@
 // any well; no physical data is involved. Timings, and so the choices
 // between methods that all meet a tolerance, depend on the machine.
 //
+// With -finite the tables are for a finite well instead: the electron of
+// the invented 10 nm GaAs/Al0.3Ga0.7As demo well (barrier 4.62 E₁, mass
+// ratio 1.372, as tiltwell.DemoGaAsWell gives them), over the fields where
+// it still confines its two lowest levels, with a fourth table of the
+// escape widths' errors.
+//
 // Usage:
 //
 //	go run ./examples/choicetable > table.md
+//	go run ./examples/choicetable -finite > finite.md
 package main
 
 import (
@@ -28,17 +35,30 @@ import (
 	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
-// candidates are the methods in the tables, cheapest first.
-func candidates() []tiltwell.Candidate {
+// candidates are the methods in the tables, cheapest first, for the well
+// st.
+func candidates(st tiltwell.Stack) ([]tiltwell.Candidate, error) {
 	var cs []tiltwell.Candidate
 	for _, m := range catalog.All() {
+		m, err := catalog.WithStack(m, st)
+		if err != nil {
+			return nil, err
+		}
 		cs = append(cs, tiltwell.Candidate{Name: m.Name, Solver: m.Solver})
 	}
-	return cs
+	return cs, nil
 }
 
-// ranges are the largest |f| of each column.
-var ranges = []float64{1, 10, 100, 1000}
+// ranges are the largest |f| of each column: for the infinite well, and
+// for the finite demo well, which confines its two lowest levels up to
+// about f = 4.
+var (
+	ranges       = []float64{1, 10, 100, 1000}
+	finiteRanges = []float64{0.5, 1, 2, 4}
+)
+
+// finiteDemo is the finite well of -finite.
+func finiteDemo() (tiltwell.Stack, error) { return tiltwell.FiniteWell(4.62, 1.372) }
 
 // tolerances are the rows of the choice table, absolute in E₁.
 var tolerances = []float64{1e-1, 1e-2, 1e-4, 1e-8, 1e-12}
@@ -58,13 +78,30 @@ func fieldsUpTo(fmax float64) []float64 {
 }
 
 func main() {
-	k := flag.Int("n", 3, "number of levels")
+	k := flag.Int("n", 0, "number of levels (default 3, or 2 with -finite)")
+	fin := flag.Bool("finite", false, "tables for the finite demo well")
 	flag.Parse()
+	var st tiltwell.Stack
+	rs := ranges
+	if *k == 0 {
+		*k = 3
+		if *fin {
+			*k = 2
+		}
+	}
+	if *fin {
+		var err error
+		if st, err = finiteDemo(); err != nil {
+			fmt.Fprintln(os.Stderr, "choicetable:", err)
+			os.Exit(2)
+		}
+		rs = finiteRanges
+	}
 	if *k < 1 || *k > 20 {
 		fmt.Fprintf(os.Stderr, "choicetable: -n %d: want 1 to 20 levels\n", *k)
 		os.Exit(2)
 	}
-	if err := run(os.Stdout, *k, ranges, tolerances); err != nil {
+	if err := run(os.Stdout, *k, rs, tolerances, st); err != nil {
 		fmt.Fprintln(os.Stderr, "choicetable:", err)
 		os.Exit(2)
 	}
@@ -73,20 +110,25 @@ func main() {
 // cell is one method over one range.
 type cell struct {
 	trueErr, est float64
+	gammaErr     float64 // worst |Γ − Γ_exact|
+	gammaEst     float64 // worst GammaErr
 	outside      bool // the method refused or flagged a field of the range
 	cost         time.Duration
 }
 
 // run writes the three tables for k levels over the given ranges of |f|
 // and tolerances.
-func run(w io.Writer, k int, ranges, tolerances []float64) error {
-	cands := candidates()
+func run(w io.Writer, k int, ranges, tolerances []float64, st tiltwell.Stack) error {
+	cands, err := candidates(st)
+	if err != nil {
+		return err
+	}
 	cells := make([][]cell, len(cands))
 	choices := make([][]string, len(tolerances))
 	for ri, fmax := range ranges {
 		fields := fieldsUpTo(fmax)
 		for ci, c := range cands {
-			cl, err := measure(c.Solver, fields, k)
+			cl, err := measure(c.Solver, st, fields, k)
 			if err != nil {
 				return fmt.Errorf("%s: %w", c.Name, err)
 			}
@@ -115,7 +157,11 @@ func run(w io.Writer, k int, ranges, tolerances []float64) error {
 		header += fmt.Sprintf(" \\|f\\| ≤ %g |", fmax)
 		rule += "---|"
 	}
-	fmt.Fprintf(w, "Worst error of the %d lowest levels over each range of reduced fields, in E₁: true error against `exact.Solver` (the method's own estimate). \"outside\" marks a method that refuses or flags part of the range.\n\n", k)
+	if st.Infinite() {
+		fmt.Fprintf(w, "Worst error of the %d lowest levels over each range of reduced fields, in E₁: true error against `exact.Solver` (the method's own estimate). \"outside\" marks a method that refuses or flags part of the range.\n\n", k)
+	} else {
+		fmt.Fprintf(w, "Finite well %v. Worst error of the %d lowest levels over each range of reduced fields, in E₁: true error against `exact.Solver{Stack: …}` (the method's own estimate). \"outside\" marks a method that refuses or flags part of the range.\n\n", st, k)
+	}
 	fmt.Fprintln(w, header)
 	fmt.Fprintln(w, rule)
 	for ci, c := range cands {
@@ -132,6 +178,27 @@ func run(w io.Writer, k int, ranges, tolerances []float64) error {
 			}
 		}
 		fmt.Fprintln(w, b.String())
+	}
+
+	if !st.Infinite() {
+		fmt.Fprintf(w, "\nWorst error of the escape widths Γ, in E₁: true error (the method's own estimate). A method that reports Γ = 0 puts its estimate of the missing width in the estimate.\n\n")
+		fmt.Fprintln(w, header)
+		fmt.Fprintln(w, rule)
+		for ci, c := range cands {
+			var b strings.Builder
+			fmt.Fprintf(&b, "| %s |", c.Name)
+			for _, cl := range cells[ci] {
+				switch {
+				case cl.outside:
+					b.WriteString(" outside |")
+				case c.Name == "exact":
+					fmt.Fprintf(&b, " reference (%s) |", sci(cl.gammaEst))
+				default:
+					fmt.Fprintf(&b, " %s (%s) |", sci(cl.gammaErr), sci(cl.gammaEst))
+				}
+			}
+			fmt.Fprintln(w, b.String())
+		}
 	}
 
 	fmt.Fprintf(w, "\nTime per level, measured by `tiltwell.Choose` on the machine that ran `go run ./examples/choicetable`.\n\n")
@@ -159,11 +226,12 @@ func run(w io.Writer, k int, ranges, tolerances []float64) error {
 	return nil
 }
 
-// measure runs s over the fields against the exact reference.
-func measure(s tiltwell.Solver, fields []float64, k int) (cell, error) {
+// measure runs s over the fields against the exact reference for the
+// well st.
+func measure(s tiltwell.Solver, st tiltwell.Stack, fields []float64, k int) (cell, error) {
 	var cl cell
 	for _, f := range fields {
-		ref, err := exact.Solver{}.Levels(nil, f, k)
+		ref, err := exact.Solver{Stack: st}.Levels(nil, f, k)
 		if err != nil {
 			return cl, err
 		}
@@ -175,6 +243,8 @@ func measure(s tiltwell.Solver, fields []float64, k int) (cell, error) {
 		for n, l := range ls {
 			cl.trueErr = math.Max(cl.trueErr, math.Abs(l.Energy-ref[n].Energy))
 			cl.est = math.Max(cl.est, l.Err)
+			cl.gammaErr = math.Max(cl.gammaErr, math.Abs(l.Gamma-ref[n].Gamma))
+			cl.gammaEst = math.Max(cl.gammaEst, l.GammaErr)
 		}
 	}
 	return cl, nil
