@@ -752,3 +752,43 @@ func BenchmarkExcitonBinding(b *testing.B) {
 		})
 	}
 }
+
+// e1–hh1 exciton falls with field (common practice, no source: electron and
+// hole separate); at zero field it agrees with the closed-form finite well.
+func TestExcitonStackField(t *testing.T) {
+	t.Parallel()
+	s, x, prev := tiltwell.DemoGaAsWell(), gaasExciton(10e-9), math.Inf(1)
+	for _, kv := range []float64{0, 25, 50, 100, 150} {
+		s.Field = tiltwell.KVPerCM(kv)
+		r, err := s.Reduce()
+		if err != nil {
+			t.Fatal(err)
+		}
+		ce, ch := r.Carriers[tiltwell.Electron], r.Carriers[tiltwell.HeavyHole]
+		e, err := exact.Solver{Stack: ce.Stack}.Wavefunction(ce.F, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		h, err := exact.Solver{Stack: ch.Stack}.Wavefunction(ch.F, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		x.Interfaces = ce.Stack.Interfaces(nil)
+		b, err := x.Binding(e, h)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if kv == 0 {
+			fe, _ := ce.Stack.Layer(0)
+			fh, _ := ch.Stack.Layer(0)
+			w, _ := x.Binding(newFiniteWell(fe.Edge, fe.Mass), newFiniteWell(fh.Edge, fh.Mass))
+			if math.Abs(b.Energy-w.Energy) > 1e-8*w.Energy {
+				t.Errorf("zero field %.12f vs analytic %.12f", b.Energy, w.Energy)
+			}
+		}
+		if !(b.Energy < prev) {
+			t.Errorf("%g kV/cm: %.6f not below %.6f", kv, b.Energy, prev)
+		}
+		prev = b.Energy
+	}
+}
