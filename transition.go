@@ -5,6 +5,7 @@ import (
 	"math"
 	"runtime"
 	"strconv"
+	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -58,6 +59,38 @@ type Transition struct {
 // or "e1-lh1".
 func (t Transition) String() string {
 	return "e" + strconv.Itoa(t.E) + "-" + t.Hole.String() + strconv.Itoa(t.H)
+}
+
+// ParseTransition parses the notation [Transition.String] writes, such as
+// "e1-hh1" or "e2-lh1" (case-insensitive, surrounding spaces ignored). It
+// returns an error wrapping [ErrLevel] for anything else, or for a level
+// outside 1..[MaxLevelRequest].
+func ParseTransition(s string) (Transition, error) {
+	p := strings.ToLower(strings.TrimSpace(s))
+	bad := fmt.Errorf("tiltwell: transition %q: want the form e1-hh1 or e1-lh2: %w", s, ErrLevel)
+	e, h, ok := strings.Cut(p, "-")
+	if !ok || !strings.HasPrefix(e, "e") {
+		return Transition{}, bad
+	}
+	var t Transition
+	switch {
+	case strings.HasPrefix(h, "hh"):
+		t.Hole, h = HeavyHole, h[2:]
+	case strings.HasPrefix(h, "lh"):
+		t.Hole, h = LightHole, h[2:]
+	default:
+		return Transition{}, bad
+	}
+	var err1, err2 error
+	t.E, err1 = strconv.Atoi(e[1:])
+	t.H, err2 = strconv.Atoi(h)
+	if err1 != nil || err2 != nil {
+		return Transition{}, bad
+	}
+	if t.E < 1 || t.H < 1 || t.E > MaxLevelRequest || t.H > MaxLevelRequest {
+		return Transition{}, fmt.Errorf("tiltwell: transition %q: levels run from 1 to %d: %w", s, MaxLevelRequest, ErrLevel)
+	}
+	return t, nil
 }
 
 // Line is one transition at one field, as computed by [Pair.Sweep].

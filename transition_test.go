@@ -826,3 +826,24 @@ func BenchmarkSweep(b *testing.B) {
 		})
 	}
 }
+
+// TestParseTransition: ParseTransition reads back what String writes, in
+// the notation of the trade (common practice, no source), and refuses
+// anything else with ErrLevel.
+func TestParseTransition(t *testing.T) {
+	t.Parallel()
+	for _, tr := range []tiltwell.Transition{{E: 1, H: 1}, {E: 2, H: 3, Hole: tiltwell.LightHole}, {E: 12, H: 1}} {
+		got, err := tiltwell.ParseTransition(tr.String())
+		if err != nil || got != tr {
+			t.Errorf("ParseTransition(%q) = %v, %v", tr.String(), got, err)
+		}
+	}
+	if got, err := tiltwell.ParseTransition(" E1-LH2 "); err != nil || got != (tiltwell.Transition{E: 1, H: 2, Hole: tiltwell.LightHole}) {
+		t.Errorf("ParseTransition(\" E1-LH2 \") = %v, %v", got, err)
+	}
+	for _, s := range []string{"", "e1", "e1-h1", "h1-e1", "e0-hh1", "e1-hh0", "e-hh1", "e1-hh", "e1-xx1", "e1-hh1x", "e99999-hh1", "e1-hh-1"} {
+		if _, err := tiltwell.ParseTransition(s); !errors.Is(err, tiltwell.ErrLevel) {
+			t.Errorf("ParseTransition(%q): %v, want ErrLevel", s, err)
+		}
+	}
+}

@@ -226,26 +226,9 @@ func parseRange(flagName, s string) ([]float64, error) {
 func parseTransitions(s string) ([]tiltwell.Transition, error) {
 	var ts []tiltwell.Transition
 	for _, p := range strings.Split(s, ",") {
-		p = strings.TrimSpace(p)
-		e, h, ok := strings.Cut(p, "-")
-		bad := usageError{fmt.Sprintf("-transitions: %q is not a transition like e1-hh1 or e1-lh2", p)}
-		if !ok || !strings.HasPrefix(e, "e") {
-			return nil, bad
-		}
-		var t tiltwell.Transition
-		switch {
-		case strings.HasPrefix(h, "hh"):
-			t.Hole, h = tiltwell.HeavyHole, h[2:]
-		case strings.HasPrefix(h, "lh"):
-			t.Hole, h = tiltwell.LightHole, h[2:]
-		default:
-			return nil, bad
-		}
-		var err1, err2 error
-		t.E, err1 = strconv.Atoi(e[1:])
-		t.H, err2 = strconv.Atoi(h)
-		if err1 != nil || err2 != nil || t.E < 1 || t.H < 1 || t.E > 100 || t.H > 100 {
-			return nil, usageError{fmt.Sprintf("-transitions: %q: levels run from 1 to 100", p)}
+		t, err := tiltwell.ParseTransition(p)
+		if err != nil {
+			return nil, usageError{"-transitions: " + err.Error()}
 		}
 		ts = append(ts, t)
 	}

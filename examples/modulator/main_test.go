@@ -162,7 +162,7 @@ func TestBadInput(t *testing.T) {
 		{[]string{"-vbi", "1"}, "go with -bias"},
 		{[]string{"-kv", "10", "-bias", "0", "-vbi", "1", "-intrinsic", "100"}, "not both"},
 		{[]string{"-transitions", "e1-hh0"}, "levels run from 1"},
-		{[]string{"-transitions", "hh1-e1"}, "not a transition"},
+		{[]string{"-transitions", "hh1-e1"}, "want the form e1-hh1"},
 		{[]string{"-transitions", "e1-lh3"}, "light hole's level 3 is not confined"},
 		{[]string{"-method", "wkb"}, "goes with -infinite"},
 		{[]string{"-infinite", "-method", "nosuch"}, "unknown -method"},
