@@ -3,16 +3,15 @@ package main
 import (
 	"fmt"
 	"image/color"
-	"os"
 	"path/filepath"
 	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 
 	"github.com/tiltwell/tiltwell"
+	"github.com/tiltwell/tiltwell/examples/internal/figure"
 )
 
 // fieldColors colour the fields in order.
@@ -41,27 +40,7 @@ func render(out string, rs []result) error {
 			return err
 		}
 	}
-	c, err := draw.NewFormattedCanvas(24*vg.Centimeter, 16*vg.Centimeter, ext)
-	if err != nil {
-		return err
-	}
-	dc := draw.New(c)
-	tiles := draw.Tiles{Rows: 2, Cols: len(rs), PadX: vg.Centimeter, PadY: 5 * vg.Millimeter,
-		PadTop: 2 * vg.Millimeter, PadBottom: 2 * vg.Millimeter, PadLeft: 2 * vg.Millimeter, PadRight: 2 * vg.Millimeter}
-	cs := plot.Align([][]*plot.Plot{top, bottom}, tiles, dc)
-	for j := range rs {
-		top[j].Draw(cs[0][j])
-		bottom[j].Draw(cs[1][j])
-	}
-	f, err := os.Create(out)
-	if err != nil {
-		return err
-	}
-	if _, err := c.WriteTo(f); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
+	return figure.Write(out, ext, 24*vg.Centimeter, 16*vg.Centimeter, [][]*plot.Plot{top, bottom})
 }
 
 // panels draws one structure's spectra and changes of absorption.
@@ -86,15 +65,7 @@ func panels(r result) (spectra, change *plot.Plot, err error) {
 		for j, e := range r.photon {
 			pts[j] = plotter.XY{X: tiltwell.Wavelength(e), Y: y[j]}
 		}
-		l, err := plotter.NewLine(pts)
-		if err != nil {
-			return err
-		}
-		l.Color = fieldColors[i%len(fieldColors)]
-		l.Width = vg.Points(1.3)
-		p.Add(l)
-		p.Legend.Add(label, l)
-		return nil
+		return figure.Line(p, pts, fieldColors[i%len(fieldColors)], false, label)
 	}
 	for i, alpha := range r.alpha {
 		if err := add(spectra, alpha, i, fmt.Sprintf("%g kV/cm", r.fields[i])); err != nil {

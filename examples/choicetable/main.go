@@ -112,7 +112,7 @@ type cell struct {
 	trueErr, est float64
 	gammaErr     float64 // worst |Γ − Γ_exact|
 	gammaEst     float64 // worst GammaErr
-	outside      bool // the method refused or flagged a field of the range
+	outside      bool    // the method refused or flagged a field of the range
 	cost         time.Duration
 }
 

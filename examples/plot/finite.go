@@ -1,16 +1,13 @@
 package main
 
 import (
-	"image/color"
-	"os"
-
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/examples/internal/figure"
 )
 
 // The -finite picture: the electron of the invented 10 nm
@@ -20,11 +17,7 @@ import (
 // two lowest levels against the field in physical units (the finite
 // well's is several times larger), and the escape time of each level.
 
-var finiteColors = []color.Color{
-	color.RGBA{R: 0x1f, G: 0x77, B: 0xb4, A: 255},
-	color.RGBA{R: 0xff, G: 0x7f, B: 0x0e, A: 255},
-	color.RGBA{R: 0x2c, G: 0xa0, B: 0x2c, A: 255},
-}
+var finiteColors = figure.Palette
 
 // renderFinite samples fields from 0 to kvMax kV/cm and writes the two
 // panels to out in format ext.
@@ -92,25 +85,7 @@ func renderFinite(out, ext string, kvMax float64, samples int) error {
 			inf[l.N-1] = append(inf[l.N-1], plotter.XY{X: kv, Y: w.MilliEV(l.Energy - inf0[l.N-1].Energy)})
 		}
 	}
-	add := func(p *plot.Plot, pts plotter.XYs, col color.Color, dash bool, label string) error {
-		if len(pts) < 2 {
-			return nil
-		}
-		l, err := plotter.NewLine(pts)
-		if err != nil {
-			return err
-		}
-		l.Color = col
-		l.Width = vg.Points(1.4)
-		if dash {
-			l.Dashes = []vg.Length{vg.Points(4), vg.Points(2)}
-		}
-		p.Add(l)
-		if label != "" {
-			p.Legend.Add(label, l)
-		}
-		return nil
-	}
+	add := figure.Line
 	names := []string{"e1", "e2", "e3"}
 	for n := range k {
 		if n == 2 {
@@ -134,22 +109,5 @@ func renderFinite(out, ext string, kvMax float64, samples int) error {
 	energy.X.Min, energy.X.Max = 0, kvMax
 	escape.X.Min, escape.X.Max = 0, kvMax
 
-	c, err := draw.NewFormattedCanvas(26*vg.Centimeter, 11*vg.Centimeter, ext)
-	if err != nil {
-		return err
-	}
-	dc := draw.New(c)
-	tiles := draw.Tiles{Rows: 1, Cols: 2, PadX: vg.Centimeter, PadTop: 2 * vg.Millimeter, PadBottom: 2 * vg.Millimeter, PadLeft: 2 * vg.Millimeter, PadRight: 2 * vg.Millimeter}
-	cs := plot.Align([][]*plot.Plot{{energy, escape}}, tiles, dc)
-	energy.Draw(cs[0][0])
-	escape.Draw(cs[0][1])
-	f, err := os.Create(out)
-	if err != nil {
-		return err
-	}
-	if _, err := c.WriteTo(f); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
+	return figure.Write(out, ext, 26*vg.Centimeter, 11*vg.Centimeter, [][]*plot.Plot{{energy, escape}})
 }

@@ -38,11 +38,11 @@ import (
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
 	"github.com/tiltwell/tiltwell/examples/internal/catalog"
+	"github.com/tiltwell/tiltwell/examples/internal/figure"
 )
 
 // method is one curve family of the picture.
@@ -122,25 +122,7 @@ func render(out, ext string, fmax float64, k int) error {
 	if err != nil {
 		return err
 	}
-	c, err := draw.NewFormattedCanvas(24*vg.Centimeter, 10*vg.Centimeter, ext)
-	if err != nil {
-		return err
-	}
-	dc := draw.New(c)
-	plots := [][]*plot.Plot{{levels, errs}}
-	tiles := draw.Tiles{Rows: 1, Cols: 2, PadX: vg.Centimeter, PadTop: 2 * vg.Millimeter, PadBottom: 2 * vg.Millimeter, PadLeft: 2 * vg.Millimeter, PadRight: 2 * vg.Millimeter}
-	cs := plot.Align(plots, tiles, dc)
-	levels.Draw(cs[0][0])
-	errs.Draw(cs[0][1])
-	f, err := os.Create(out)
-	if err != nil {
-		return err
-	}
-	if _, err := c.WriteTo(f); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
+	return figure.Write(out, ext, 24*vg.Centimeter, 10*vg.Centimeter, [][]*plot.Plot{{levels, errs}})
 }
 
 func fail(err error) {

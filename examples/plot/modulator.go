@@ -3,15 +3,14 @@ package main
 import (
 	"fmt"
 	"image/color"
-	"os"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/examples/internal/figure"
 )
 
 // The -modulator picture: for each invented demo structure
@@ -57,27 +56,7 @@ func renderModulator(out, ext string, kvMax float64, samples int) error {
 		}
 		rows = append(rows, ps)
 	}
-	c, err := draw.NewFormattedCanvas(30*vg.Centimeter, 18*vg.Centimeter, ext)
-	if err != nil {
-		return err
-	}
-	dc := draw.New(c)
-	tiles := draw.Tiles{Rows: len(rows), Cols: 3, PadX: vg.Centimeter, PadY: 5 * vg.Millimeter, PadTop: 2 * vg.Millimeter, PadBottom: 2 * vg.Millimeter, PadLeft: 2 * vg.Millimeter, PadRight: 2 * vg.Millimeter}
-	cs := plot.Align(rows, tiles, dc)
-	for i, r := range rows {
-		for j, p := range r {
-			p.Draw(cs[i][j])
-		}
-	}
-	f, err := os.Create(out)
-	if err != nil {
-		return err
-	}
-	if _, err := c.WriteTo(f); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
+	return figure.Write(out, ext, 30*vg.Centimeter, 18*vg.Centimeter, rows)
 }
 
 // modulatorPanels computes the three panels of one structure.
@@ -123,25 +102,7 @@ func modulatorPanels(name string, s tiltwell.Structure, kvMax float64, samples i
 	escape.Legend.XOffs, escape.Legend.YOffs = vg.Millimeter, vg.Millimeter
 
 	nt := len(ts)
-	add := func(p *plot.Plot, pts plotter.XYs, col color.Color, dash bool, label string) error {
-		if len(pts) == 0 {
-			return nil
-		}
-		l, err := plotter.NewLine(pts)
-		if err != nil {
-			return err
-		}
-		l.Color = col
-		l.Width = vg.Points(1.4)
-		if dash {
-			l.Dashes = []vg.Length{vg.Points(4), vg.Points(2)}
-		}
-		p.Add(l)
-		if label != "" {
-			p.Legend.Add(label, l)
-		}
-		return nil
-	}
+	add := figure.Line
 	for j, ml := range modLines {
 		var e, o plotter.XYs
 		for i := j; i < len(lines); i += nt {
