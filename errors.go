@@ -20,8 +20,11 @@ var (
 	ErrOutOfRange = errors.New("tiltwell: field outside the method's range")
 	// ErrNoConvergence reports an iteration that did not converge.
 	ErrNoConvergence = errors.New("tiltwell: no convergence")
-	// ErrUnits reports a physical parameter (width, mass, tolerance) that
-	// is not a finite positive number.
+	// ErrUnits reports a physical parameter that is not usable: a width,
+	// mass, tolerance or temperature that is not a finite positive number,
+	// a well outside the plausible range [NewWell] accepts, a bad layer of
+	// a [Stack] or [Structure], or a material composition outside its
+	// range.
 	ErrUnits = errors.New("tiltwell: invalid physical parameter")
 	// ErrNoSolver reports a missing solver: an empty candidate list for
 	// [Choose], or a nil [Solver] where one is needed.
