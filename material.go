@@ -86,7 +86,7 @@ func (v Valley) At(T float64) float64 {
 // III and VI, numbering from memory). The alloy values use the bowing
 // parameters of its Sec. IV (the Al_xGa_{1−x}As, Ga_{1−x}In_xAs and
 // Al_xIn_{1−x}As subsections). The numbers were checked against two
-// independent public transcriptions of these tables, which agree on every
+// independent public copies of these tables, which agree on every
 // value used here except the two noted at [AlGaAs] and [InGaAs]. The
 // static dielectric constants, which [VMR] does not list, are from [NSM].
 //
@@ -243,7 +243,7 @@ type bowing struct {
 var (
 	// Al_xGa_{1−x}As: Γ-gap bowing −0.127 + 1.310x eV, X-gap bowing
 	// 0.055 eV, and no VBO bowing (the GaAs/AlAs offset of 0.53 eV is
-	// shared linearly). The two public transcriptions we checked read the
+	// shared linearly). The two public copies we checked read the
 	// X bowing as 0.055 and 0.55 eV; 0.055 is the one consistent with the
 	// Γ–X crossover near x ≈ 0.4–0.45 (common practice, no source), while
 	// 0.55 would make Al0.35Ga0.65As indirect.
@@ -254,7 +254,7 @@ var (
 	// Ga_{1−x}In_xAs (here In_xGa_{1−x}As, A = InAs): Γ gap 0.477 eV,
 	// X gap 1.4 eV, L gap 0.33 eV, VBO −0.38 eV, electron mass 0.0091,
 	// E_P −1.48 eV, and [001] hole masses −0.145 (heavy) and 0.0202
-	// (light). One public transcription reads the light-hole value as
+	// (light). One public copy reads the light-hole value as
 	// 0.202, which would give an unphysical 0.006 m₀ at x = 0.53; 0.0202
 	// gives 0.052 m₀, close to the commonly quoted 0.05 m₀ (from memory).
 	inGaAsBowing = bowing{
@@ -325,7 +325,7 @@ func alloyName(pattern string, x float64) string {
 
 // AlGaAs returns Al_xGa_{1−x}As ([VMR] Sec. IV, Al_xGa_{1−x}As): Γ-gap
 // bowing −0.127 + 1.310x eV, X-gap bowing 0.055 eV, everything else
-// linear in x (the valence-band offset too). Public transcriptions of
+// linear in x (the valence-band offset too). Public copies of
 // [VMR] differ on the X bowing (0.055 or 0.55 eV); 0.055 is the one that
 // keeps the Γ–X crossover near x ≈ 0.4–0.45, where the trade puts it. It
 // returns an error wrapping [ErrUnits] unless 0 ≤ x ≤ 1. Beyond x ≈ 0.41
@@ -338,7 +338,7 @@ func AlGaAs(x float64) (Material, error) {
 // InGaAs returns In_xGa_{1−x}As ([VMR] Sec. IV, Ga_{1−x}In_xAs), with the
 // bowing of its Γ, X and L gaps, valence-band offset, electron mass, Kane
 // energy and [001] hole masses; γ1 and γ2 are those that reproduce the
-// bowed hole masses, γ3 is linear. Public transcriptions of [VMR] differ
+// bowed hole masses, γ3 is linear. Public copies of [VMR] differ
 // on the light-hole bowing (0.0202 or 0.202); we use 0.0202, the one that
 // gives a physical mass (0.052 m₀ at x = 0.53, not 0.006 m₀). It returns
 // an error wrapping [ErrUnits] unless 0 ≤ x ≤ 1. In0.53Ga0.47As is
