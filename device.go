@@ -18,6 +18,30 @@ import (
 // [Solver] in this module is.
 type StackSolver func(Stack) WaveSolver
 
+// WaveBuilder is a [WaveSolver] that builds the wavefunction of a level
+// it has just computed from the level itself, in storage the caller
+// reuses: without solving the level again and, in steady state, without
+// allocating. [Device.Lines] uses it when a solver implements it;
+// otherwise it calls Wavefunction at every field, which solves each level
+// a second time.
+type WaveBuilder interface {
+	WaveSolver
+	// BuildWave returns the wavefunction of level l at reduced field f,
+	// where l is a level that Levels returned for the same f: the
+	// function that Wavefunction(f, l.N) returns (to rounding), built
+	// from l instead of solving the level again. It implements [Spread]
+	// if Wavefunction's does.
+	//
+	// reuse is nil or a Wavefunction that BuildWave returned earlier and
+	// that the caller no longer uses: BuildWave may build the result in
+	// its storage, and then must not allocate. The result is safe for
+	// concurrent use until it is passed to BuildWave again.
+	//
+	// Errors follow the rules of [Solver.Levels]; an l that is not a
+	// level of the solver at f is an error wrapping [ErrLevel].
+	BuildWave(reuse Wavefunction, f float64, l Level) (Wavefunction, error)
+}
+
 // Device is a [Structure] prepared for sweeps of its interband
 // transitions over the applied field: its electron, heavy-hole and
 // light-hole problems in their reduced units (see [Structure.Reduce]),
@@ -33,12 +57,14 @@ type Device struct {
 	r       Reduced
 	ts      []Transition
 	solvers [3]WaveSolver // by Carrier; nil for a hole band no transition names
-	k       [3]int        // levels needed of each carrier
-	need    [3][]bool     // need[c][n−1]: some transition uses level n of c
-	layers  [3][]Layer
-	ifaces  []float64 // the interfaces, shared by every carrier's stack
-	zero    [3][]Level
-	pool    sync.Pool // of *deviceScratch
+	// builders holds the solvers that are WaveBuilders (nil otherwise).
+	builders [3]WaveBuilder
+	k        [3]int    // levels needed of each carrier
+	need     [3][]bool // need[c][n−1]: some transition uses level n of c
+	layers   [3][]Layer
+	ifaces   []float64 // the interfaces, shared by every carrier's stack
+	zero     [3][]Level
+	pool     sync.Pool // of *deviceScratch
 }
 
 // DeviceLine is one interband transition of a [Device] at one field, in
@@ -169,6 +195,7 @@ func NewDevice(s Structure, solve StackSolver, ts []Transition) (d *Device, err 
 			return nil, fmt.Errorf("tiltwell: device: the StackSolver returned a nil solver for the %s: %w", c.name(), ErrNoSolver)
 		}
 		d.solvers[c] = sv
+		d.builders[c], _ = sv.(WaveBuilder)
 		d.layers[c] = cw.Stack.Layers(nil)
 		lv, err := sv.Levels(nil, 0, d.k[c])
 		if err == nil {
@@ -438,7 +465,12 @@ func (d *Device) field(out []DeviceLine, F float64, sc *deviceScratch) error {
 			if !ok {
 				continue
 			}
-			w, err := d.solvers[c].Wavefunction(f[c], n+1)
+			var w Wavefunction
+			if b := d.builders[c]; b != nil {
+				w, err = b.BuildWave(sc.waves[c][n], f[c], sc.lv[c][n])
+			} else {
+				w, err = d.solvers[c].Wavefunction(f[c], n+1)
+			}
 			if err == nil && (w == nil || isNil(w)) {
 				err = fmt.Errorf("nil wavefunction: %w", ErrNoSolver)
 			}
