@@ -706,6 +706,66 @@ func TestDeviceAllocs(t *testing.T) {
 	}
 }
 
+// TestDeviceExactBuilder: exact.Solver is a WaveBuilder; the lines built
+// from its levels are those of the Wavefunction path (which solves every
+// level again) to 1e-13 (measured 2e-14: the wavefunctions of resonances
+// agree within the levels' own errors), and Lines allocates nothing per
+// field with it.
+func TestDeviceExactBuilder(t *testing.T) {
+	var _ tiltwell.WaveBuilder = exact.Solver{}
+	ts := []tiltwell.Transition{e1hh1, e1hh2, e1lh1}
+	fields := kvFields(0, 10, 40, 75, -90, 120, 150, 200)
+	for _, s := range []tiltwell.Structure{tiltwell.DemoGaAsWell(), tiltwell.DemoInGaAsWell(), steppedWell(t)} {
+		d, err := tiltwell.NewDevice(s, exactFor, ts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ref, err := tiltwell.NewDevice(s, func(st tiltwell.Stack) tiltwell.WaveSolver { return waveOnly{exact.Solver{Stack: st}} }, ts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		got, err := d.Lines(nil, fields)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, err := ref.Lines(nil, fields)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := range got {
+			g, w := got[i], want[i]
+			if g.Energy != w.Energy || g.Shift != w.Shift || g.ElectronEscape != w.ElectronEscape || math.Abs(g.Overlap-w.Overlap) > 1e-13 {
+				t.Errorf("%s %v at %g kV/cm: built %+v, Wavefunction path %+v", s.Slabs[1].Material.Name, g.Transition, tiltwell.InKVPerCM(g.Field), g, w)
+			}
+		}
+	}
+	if raceEnabled || testing.CoverMode() != "" {
+		t.Skip("allocation counts differ under -race and -cover")
+	}
+	d, err := tiltwell.NewDevice(tiltwell.DemoGaAsWell(), exactFor, ts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	many := make([]float64, 200)
+	for i := range many {
+		many[i] = tiltwell.KVPerCM(150 * float64(i) / 199)
+	}
+	dst := make([]tiltwell.DeviceLine, 0, len(ts)*len(many))
+	allocs := func(fields []float64) float64 {
+		return testing.AllocsPerRun(10, func() {
+			var err error
+			if dst, err = d.Lines(dst, fields); err != nil {
+				t.Fatal(err)
+			}
+		})
+	}
+	// As TestDeviceAllocs: at most one allocation per call, none per
+	// field.
+	if a, b := allocs(many[:20]), allocs(many); a > 1 || b > 1 {
+		t.Errorf("%v allocations for 20 fields, %v for 200: want at most 1", a, b)
+	}
+}
+
 // FuzzDeviceLines: any field gives finite lines or an error wrapping a
 // root sentinel.
 func FuzzDeviceLines(f *testing.F) {

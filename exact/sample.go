@@ -159,6 +159,14 @@ func (w *sampledWave) build(f float64, l tiltwell.Level) error {
 		r := w.a1 / w.b1 * math.Exp(-2*w.zeta1) // Ai/Bi at z₁
 		w.w.scale = math.Sqrt(1 + r*r)
 		w.c1, w.s1 = 1/w.w.scale, r/w.w.scale
+	case st.node1 != nil:
+		// From the phase series about the node j nearest z₁ (see
+		// airy.go): c = M_j M sin(Θ − Θ_j), d = M_j M cos(Θ − Θ_j), so
+		// (cos Θ₁, sin Θ₁) is (Bi_j d − Ai_j c, Bi_j c + Ai_j d)/(M_j² M).
+		s, c, d := st.node1, st.c1, st.d1
+		a, b := s.ai[0], s.bi[0]
+		m := math.Sqrt(s.m2 * (c*c + d*d))
+		w.c1, w.s1 = (b*d-a*c)/m, (b*c+a*d)/m
 	default:
 		s, d := node(z1)
 		a, b := estrin2(&s.ai, &s.bi, d)

@@ -200,6 +200,11 @@ type state struct {
 	gp         float64 // ∂G/∂η at the last evaluation
 	err        float64
 	iterations int
+	// When both walls were in the node table at the last evaluation:
+	// the node nearest z₁ and the phase series c(z₁), d(z₁) about it
+	// (nil otherwise). The wavefunction's sampler takes Θ(z₁) from them.
+	node1  *nodeSeries
+	c1, d1 float64
 }
 
 // wallScale holds the per-field constants of the level equation: α =
@@ -235,7 +240,7 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 		// difference (2/3)(x₀^(3/2) − x₁^(3/2)) in the form
 		// (2/3)α(x₀ + √(x₀x₁) + x₁)/(√x₀ + √x₁), which does not cancel
 		// at weak field, in double-double.
-		st.asym = true
+		st.asym, st.node1 = true, nil
 		s0, s1 := ddSqrt(x0), ddSqrt(x1)
 		tc0, rr0 := negPhaseCorr(x0.hi)
 		tc1, rr1 := negPhaseCorr(x1.hi)
@@ -248,7 +253,7 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 		gerr = eps * (1 + 2*math.Abs(tc0) + 2*math.Abs(tc1) + 1e-3*np.hi)
 		return g, gp, gerr
 	}
-	st.asym = false
+	st.asym, st.node1 = false, nil
 	z0, z1 := ddNeg(x0), ddNeg(x1)
 	var p0, p1 float64
 	if inTable(z0.hi) && inTable(z1.hi) {
@@ -262,6 +267,7 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 		g = ddAdd(k, dd{ang, 0}).hi
 		p0 = s0.m2 / (math.Pi * (c0*c0 + d0*d0))
 		p1 = s1.m2 / (math.Pi * (c1*c1 + d1*d1))
+		st.node1, st.c1, st.d1 = s1, c1, d1
 	} else {
 		th0, q0 := phaseDD(z0)
 		th1, q1 := phaseDD(z1)
