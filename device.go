@@ -327,19 +327,21 @@ type deviceScratch struct {
 // Each carrier is solved at its own reduced field (see [CarrierWell]),
 // the holes at −F/F₀(h), energies and wavefunctions alike. The fields are
 // computed in parallel, on at most runtime.GOMAXPROCS(0) goroutines; the
-// result does not depend on their number or timing. With capacity in dst,
-// Lines allocates nothing in steady state beyond what the solvers' Levels
-// and Wavefunction allocate (TestDeviceAllocs); the exact solver allocates
-// about 11 times for each wavefunction, 33 times per field for e1–hh1 and
-// e1–lh1.
+// result does not depend on their number or timing. A solver that is a
+// [WaveBuilder] (exact.Solver is) builds each wavefunction from the level
+// just solved, in the worker's reused storage; otherwise Lines calls
+// Wavefunction at every field. With capacity in dst, Lines allocates
+// nothing in steady state beyond what the solvers' Levels and
+// Wavefunction allocate (TestDeviceAllocs): with exact.Solver, nothing
+// (TestDeviceExactBuilder).
 //
 // Cost, with the exact solver on one core (BenchmarkDeviceLines: e1–hh1
 // and e1–lh1 of [DemoGaAsWell] at 10⁴ fields from 0 to 150 kV/cm; CPU
-// time on a shared machine): 150–200 µs per field, 1.5–2 s for the 10⁴
-// fields, 8 to 9 times the three level solves alone. More than half of it
-// is the exact solver building the three wavefunctions (it solves each
-// level again and bounds its support); the rest is the overlap
-// quadrature, about 330 wavefunction evaluations per field.
+// time on a shared machine): 36 µs per field, 0.36 s for the 10⁴ fields
+// (1.5 s when Lines called Wavefunction), 3 times the three level solves
+// alone (12 µs per field). Building the three wavefunctions from the
+// levels takes 7 µs of it; the overlap quadrature, about 330 wavefunction
+// evaluations per field at 35–50 ns each, most of the rest.
 //
 // Lines returns an error, and no lines, for a field that is NaN or
 // infinite or so large that a carrier's reduced field overflows

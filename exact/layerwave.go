@@ -96,6 +96,7 @@ type wavePiece struct {
 	x    float64 // where the state is known (a or b)
 	u, w float64 // state at x (scaled by e^lg)
 	lg   float64 // log of the factor that turns u into φ
+	eLg  float64 // e^lg
 	seg  segInfo
 }
 
@@ -244,11 +245,13 @@ func (c *calc) finishWave(b *waveBuf, n int, eta, S float64, r *evalResult) {
 	// right ones reversed are sorted by position.
 	for _, p := range b.left.pieces {
 		p.lg -= half
+		p.eLg = math.Exp(p.lg)
 		pieces = append(pieces, p)
 	}
 	for i := len(b.right.pieces) - 1; i >= 0; i-- {
 		p := b.right.pieces[i]
 		p.lg -= half + lnk
+		p.eLg = math.Exp(p.lg)
 		p.u *= sgn
 		p.w *= sgn
 		pieces = append(pieces, p)
@@ -305,9 +308,12 @@ func (sw *StackWave) pieceAt(p *wavePiece, xi float64) float64 {
 	case segTaylor:
 		q := math.FMA(c.f, p.x-0.5, seg.v-sw.eta)
 		u := taylorValue(p.u, p.w, h, seg.mu, math.Pi*math.Pi*seg.mu*q, math.Pi*math.Pi*seg.mu*c.f)
-		return u * math.Exp(p.lg)
+		return u * p.eLg
 	case segZero:
 		u, lg := zeroValue(p.u, p.w, h, seg.v, seg.mu, sw.eta)
+		if lg == 0 {
+			return u * p.eLg
+		}
 		return u * math.Exp(p.lg+lg)
 	}
 	// Thick forbidden part: φ = A d + B g from the state at x, with d =
@@ -543,10 +549,15 @@ func taylorValue(u, w, h, mu, lam, beta float64) float64 {
 	size := math.Abs(e0) + math.Abs(e1)
 	var em1 float64
 	ek, ek1 := e0, e1
+	tol := 0x1p-60 * size
 	for k := 0; k+2 < maxTaylor; k++ {
-		e2 := (A*ek + B*em1) / float64((k+2)*(k+1))
+		// The reciprocal table, not a division: the terms form a
+		// dependent chain, and a division would set its pace.
+		e2 := (A*ek + B*em1) * taylorInv[k]
 		U += e2
-		if k >= 2 && math.Abs(e2)+math.Abs(ek1) <= 0x1p-60*size {
+		// Two small terms in a row, checked every other term (as in
+		// taylorStep).
+		if k&1 == 1 && math.Abs(e2)+math.Abs(ek1) <= tol {
 			break
 		}
 		em1, ek, ek1 = ek, ek1, e2
