@@ -25,12 +25,15 @@ var (
 // stopped as soon as a step is below the level's Err (or the rounding
 // floor): one evaluation for a level from Levels, two for a resonance
 // whose second-order shift η_r − η₀ exceeds Err (the wavefunction of a
-// quasi-bound level is built at the real level η₀, see [StackWave]).
+// quasi-bound level is built at the real level η₀, see [StackWave]). The
+// cost is given at [Solver] ("Wavefunctions of solved levels").
 //
 // Errors: those of [Solver.Levels] for f and l.N; an energy that is not
-// finite, or whose level equation is more than a quarter of the way to
-// the next level (a level other than l.N, or no level), or (Stack) at or
-// above the confinement ceiling wraps [tiltwell.ErrLevel].
+// finite, whose level equation is more than a quarter of the way to the
+// next level (a level other than l.N, or no level), or that the steps
+// move by more than 16 Err (infinite walls) or Γ + 16 Err (a Stack: η_r
+// lies within 0.3 Γ of η₀ on the test stacks), or (Stack) at or above the
+// confinement ceiling wraps [tiltwell.ErrLevel].
 func (s Solver) BuildWave(reuse tiltwell.Wavefunction, f float64, l tiltwell.Level) (tiltwell.Wavefunction, error) {
 	if s.Stack.Infinite() {
 		w, ok := reuse.(*sampledWave)
