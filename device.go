@@ -331,9 +331,9 @@ type deviceScratch struct {
 // [WaveBuilder] (exact.Solver is) builds each wavefunction from the level
 // just solved, in the worker's reused storage; otherwise Lines calls
 // Wavefunction at every field. With capacity in dst, Lines allocates
-// nothing in steady state beyond what the solvers' Levels and
-// Wavefunction allocate (TestDeviceAllocs): with exact.Solver, nothing
-// (TestDeviceExactBuilder).
+// nothing per field in steady state beyond what the solvers' Levels and
+// Wavefunction allocate, and at most once per call (TestDeviceAllocs);
+// exact.Solver allocates nothing (TestDeviceExactBuilder).
 //
 // Cost, with the exact solver on one core (BenchmarkDeviceLines: e1–hh1
 // and e1–lh1 of [DemoGaAsWell] at 10⁴ fields from 0 to 150 kV/cm; CPU
