@@ -664,7 +664,13 @@ func startOrder(omega, need float64) int {
 			return i
 		}
 		q := 4 * float64(n) / eo
-		if q > 1 && 2*float64(n)*math.Log(q) >= need {
+		// ln q ≤ (q − 1)/√q for q ≥ 1: orders that fail this bound
+		// (with a margin for its rounding) fail the test, and need no
+		// logarithm.
+		if !(q > 1) || 2*float64(n)*(q-1)/math.Sqrt(q) < need*(1-1e-9) {
+			continue
+		}
+		if 2*float64(n)*math.Log(q) >= need {
 			return i
 		}
 	}
