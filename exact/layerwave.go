@@ -384,7 +384,9 @@ func (ls *layerScale) lnMRatio(e *tailEnd, q, d float64) (lr, dlr float64) {
 	dz := (2.0 / 3) * rm * d * (q + sq*e.sq + e.q) / (sq + e.sq)
 	t := ls.tOf(q, sq)
 	l, _ := seriesEval(&logU, t, 1)
-	lr = dz - 0.25*math.Log1p(ls.f*d/e.q) + (l - e.l)
+	// ln(q/q_I), not log1p(f d/q_I): the same q as z, so that the two
+	// cannot disagree near the turning point at a tiny field.
+	lr = dz - 0.25*math.Log(q/e.q) + (l - e.l)
 	rg, _ := seriesEval(&ratioR, t, 1)
 	// d ln Bi/dξ = s Bi′/Bi = κ R(t), κ = π√(μq).
 	return lr, rm * sq * rg
@@ -443,7 +445,7 @@ func (sw *StackWave) rightTail(xi float64) float64 {
 	}
 	d := xi - sw.xn
 	dz := (2.0 / 3) * rm * d * (q + sq*e.sq + e.q) / (sq + e.sq)
-	return sw.phin * math.Exp(-(dz + 0.25*math.Log1p(ls.f*d/e.q) + (e.l - l)))
+	return sw.phin * math.Exp(-(dz + 0.25*math.Log(q/e.q) + (e.l - l)))
 }
 
 // Support returns the interval over which φ is normalized and outside
@@ -476,11 +478,15 @@ func (sw *StackWave) support() (lo, hi float64) {
 // downhillEnd returns the point ξ between the downhill turning point ξ_t
 // and interface 1 where w(ξ) = (ξ − ξ_t) φ(ξ)² falls to tiny: φ² ∝ M²
 // grows with ξ there, so w bounds ∫φ² from ξ_t to ξ, and beyond the point
-// returned that weight is at most tiny. In u = ln(ξ − ξ_t) the equation
-// ln w = u + ln φ² = ln tiny has slope at least 1, and since φ grows its
-// root lies between ln(tiny/φ₁²) and ln(tiny/φ(ξ_t)²): Newton steps in u
-// inside that bracket (bisection when a step leaves it) end within 1e-9
-// of the tail's length of the root, on the side where w ≤ tiny. A root
+// returned that weight is at most tiny. ln w increases with ξ; it is
+// solved by Newton steps kept inside a bracket (bisection when a step
+// leaves it), in u = ln(ξ − ξ_t) when the root lies in the half of
+// [ξ_t, ξ₁] nearer the turning point (ln w = u + ln φ² has slope at least
+// 1 there, and since φ grows the root lies between ln(tiny/φ₁²) and
+// ln(tiny/φ(ξ_t)²)), and in the distance d = ξ₁ − ξ from the interface in
+// the other half (at weak field the turning point is far away, and ξ_t +
+// e^u would not resolve ξ). The point returned is within 1e-9 of the
+// root's distance from the nearer end, on the side where w ≤ tiny; a root
 // that close to ξ_t gives ξ_t itself.
 func (sw *StackWave) downhillEnd(tiny float64) float64 {
 	xt, x1 := sw.turningLeft, sw.x1
@@ -490,25 +496,73 @@ func (sw *StackWave) downhillEnd(tiny float64) float64 {
 	}
 	lnTiny := math.Log(tiny)
 	lnP1 := 2 * math.Log(sw.phi1) // ln φ₁²
+	// ln w − ln tiny at ξ = ξ₁ − d, with ξ − ξ_t = span − d, and its
+	// derivative with respect to ξ.
+	hx := func(d float64) (v, s float64) {
+		lr, dlr := sw.leftLog(x1 - d)
+		e := span - d
+		return math.Log(e) + lnP1 + 2*lr - lnTiny, 1/e + 2*dlr
+	}
+	if v, _ := hx(0); !(v > 0) {
+		return x1
+	}
+	if v, _ := hx(span / 2); !(v > 0) {
+		// The root is in the half nearer the interface: Newton in d,
+		// from the decay at the interface.
+		a, b := 0.0, span/2 // w > tiny at a, ≤ tiny at b
+		_, k := sw.leftLog(x1)
+		d := (math.Log(span) + lnP1 - lnTiny) / (2 * k)
+		for range 100 {
+			if !(d > a && d < b) {
+				// Bisection, in ln(1 + d) while the bracket spans
+				// decades (a far turning point at a tiny field).
+				d = a + (b-a)/2
+				if b > 4*(a+1) {
+					d = math.Sqrt((a+1)*(b+1)) - 1
+				}
+			}
+			v, s := hx(d)
+			if v > 0 {
+				a = d
+			} else {
+				b = d
+			}
+			tol := 1e-9 * d
+			if b-a <= tol {
+				break
+			}
+			nd := d + v/s
+			if v > 0 && math.Abs(nd-d) <= tol {
+				// Newton has converged from inside: step just past the
+				// root to close the bracket.
+				nd += tol / 2
+			}
+			d = nd
+		}
+		// The float64 point no nearer the interface than the root.
+		x := x1 - b
+		for x1-x < b {
+			x = math.Nextafter(x, math.Inf(-1))
+		}
+		return x
+	}
+	// The root is in the half nearer the turning point: Newton in u.
 	h := func(u float64) (v, s float64) {
 		d := math.Exp(u)
 		lr, dlr := sw.leftLog(xt + d)
 		return u + lnP1 + 2*lr - lnTiny, 1 + 2*dlr*d
 	}
-	tol := 1e-9 * span
 	lrt, _ := sw.leftLog(xt)
-	a := lnTiny - lnP1                // w ≤ tiny there: φ ≤ φ₁
-	b := min(a-2*lrt, math.Log(span)) // w ≥ tiny there, or ξ₁
+	a := lnTiny - lnP1                  // w ≤ tiny there: φ ≤ φ₁
+	b := min(a-2*lrt, math.Log(span/2)) // w > tiny there
+	tol := 1e-9 * span
 	if math.Exp(b) <= tol {
 		return xt
-	}
-	v, s := h(b)
-	if !(v > 0) {
-		return xt + math.Exp(b)
 	}
 	if !(a < b) {
 		return xt
 	}
+	v, s := h(b)
 	u := b - v/s
 	for range 60 {
 		if !(u > a && u < b) {
@@ -521,18 +575,23 @@ func (sw *StackWave) downhillEnd(tiny float64) float64 {
 			a = u
 		}
 		d := math.Exp(u)
-		if (math.Exp(b)-math.Exp(a)) <= tol || (b-a)*d <= tol {
+		if math.Exp(b)-math.Exp(a) <= 1e-9*d || (b-a) <= 1e-9 {
 			break
 		}
 		nu := u - v/s
-		if v > 0 && math.Abs(nu-u)*d <= tol {
+		if v > 0 && math.Abs(nu-u) <= 1e-9 {
 			// Newton has converged from above: step just past the root
 			// to close the bracket.
-			nu -= tol / (2 * d)
+			nu -= 0.5e-9
 		}
 		u = nu
 	}
-	return xt + math.Exp(a)
+	// The float64 point no further from the turning point than e^a.
+	x, e := xt+math.Exp(a), math.Exp(a)
+	for x-xt > e && x > xt {
+		x = math.Nextafter(x, math.Inf(-1))
+	}
+	return x
 }
 
 func (c *calc) muAt(j int) float64 {

@@ -357,4 +357,26 @@ func TestDownhillEnd(t *testing.T) {
 	if n < 20 {
 		t.Errorf("only %d ends strictly inside their tails", n)
 	}
+	// At weak fields the turning point is up to 1e301 away: the end
+	// stays a few tens of decay lengths from the interface (ln w, formed
+	// from logarithms, at most ln 1e-17 there), where an 80-step
+	// bisection over [ξ_t, ξ₁] left it near −9e284 at f ≤ 1e-30.
+	for _, st := range []tiltwell.Stack{benchWell, benchClad} {
+		s := Solver{Stack: st}
+		for _, f := range []float64{1e-300, 1e-100, 1e-30, 1e-12} {
+			for k := 1; k <= 2; k++ {
+				w, err := s.Wavefunction(f, k)
+				if err != nil {
+					t.Fatal(err)
+				}
+				sw := w.(*StackWave)
+				lo := sw.lo
+				lr, _ := sw.leftLog(lo)
+				lnw := math.Log(lo-sw.turningLeft) + 2*(math.Log(sw.phi1)+lr)
+				if !(lo >= sw.x1-40 && lo < sw.x1) || lnw > math.Log(tiny)+1e-9 {
+					t.Errorf("%v f=%g n=%d: end %g (interface %g), ln w = %.6g", st, f, k, lo, sw.x1, lnw)
+				}
+			}
+		}
+	}
 }
