@@ -136,30 +136,39 @@ func (c *calc) buildWave(b *waveBuf, n int, eta float64, m int, S, tol, maxShift
 		L, R := c.recordCarry(b, eta, m)
 		r = c.match(L, R, S)
 		if math.IsInf(r.errD, 1) {
-			return fmt.Errorf("exact: level %d at f = %g: the stack's layers hold more than %d Taylor steps at this field: %w", n, c.f, maxSteps, tiltwell.ErrOutOfRange)
+			return &farError{fmt.Errorf("exact: level %d at f = %g: the stack's layers hold more than %d Taylor steps at this field: %w", n, c.f, maxSteps, tiltwell.ErrOutOfRange)}
 		}
 		g := r.D - target
 		if it == 0 && !(math.Abs(g) <= math.Pi/4) {
-			return fmt.Errorf("exact: η = %v is not level %d at f = %g (its level equation is off by %.3gπ): %w", eta, n, c.f, g/math.Pi, tiltwell.ErrLevel)
+			return &farError{fmt.Errorf("exact: η = %v is not level %d at f = %g (its level equation is off by %.3gπ): %w", eta, n, c.f, g/math.Pi, tiltwell.ErrLevel)}
 		}
 		if !(r.Dp > 0) || math.IsInf(r.Dp, 0) {
-			return fmt.Errorf("exact: level %d at f = %g: the level equation has slope %v at η = %v: %w", n, c.f, r.Dp, eta, tiltwell.ErrNoConvergence)
+			return &farError{fmt.Errorf("exact: level %d at f = %g: the level equation has slope %v at η = %v: %w", n, c.f, r.Dp, eta, tiltwell.ErrNoConvergence)}
 		}
 		step := g / r.Dp
 		if math.Abs(g) <= r.errD || math.Abs(step) <= max(tol, 2*r.errD/r.Dp+4*eps*max(1, math.Abs(eta))) {
 			break
 		}
-		if it == maxWaveSteps {
-			return fmt.Errorf("exact: level %d at f = %g: the wavefunction's energy did not settle from η = %v: %w", n, c.f, eta, tiltwell.ErrNoConvergence)
+		if it == maxWaveSteps || !(math.Abs(eta-step-start) <= maxShift) {
+			return &farError{fmt.Errorf("exact: level %d at f = %g: the wavefunction's energy did not settle within %.3g of η = %v: %w", n, c.f, maxShift, start, tiltwell.ErrNoConvergence)}
 		}
 		eta -= step
 	}
 	if !(math.Abs(eta-start) <= maxShift) {
-		return fmt.Errorf("exact: η = %v is not level %d at f = %g, whose real level is %v: %w", start, n, c.f, eta, tiltwell.ErrLevel)
+		return &farError{fmt.Errorf("exact: η = %v is not level %d at f = %g, whose real level is %v: %w", start, n, c.f, eta, tiltwell.ErrLevel)}
 	}
 	c.finishWave(b, n, eta, S, &r)
 	return nil
 }
+
+// farError is buildWave's report that the energy it was given is not
+// within a few Newton steps of the real level: too far for its level
+// equation (a broad resonance whose η_r lies a good part of the level
+// spacing from η₀), or not level n at all.
+type farError struct{ err error }
+
+func (e *farError) Error() string { return e.err.Error() }
+func (e *farError) Unwrap() error { return e.err }
 
 // recordCarry carries the left solution to interface m and the right one
 // back to it at η, recording every step in b's recorders.

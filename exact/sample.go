@@ -1,6 +1,7 @@
 package exact
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sync"
@@ -339,33 +340,50 @@ func (s Solver) buildStack(w *sampledStackWave, f float64, l tiltwell.Level) err
 	// η_r lies within Γ of the real level η₀ (its second-order shift
 	// g²(κ₂ − χ₁), g = −Γ/2, was at most 0.29 Γ on the test stacks).
 	maxShift := l.Gamma + 16*l.Err + 4*eps*max(1, math.Abs(eta))
+	err := c.buildFrom(w, n, eta, tol, maxShift)
+	if err == nil {
+		return nil
+	}
+	var far *farError
+	if !errors.As(err, &far) {
+		return err
+	}
+	// Newton steps from η_r do not reach the real level (a broad
+	// resonance, Γ a good part of the spacing), or l is not level n:
+	// solve level n as Wavefunction does, and build at its real level if
+	// its η_r is l's.
+	sl, serr := c.nth(n, f)
+	if serr != nil {
+		return serr
+	}
+	if !(math.Abs(sl.lv.Energy-eta) <= 16*(l.Err+sl.lv.Err)+4*eps*max(1, math.Abs(eta))) {
+		return fmt.Errorf("exact: η = %v is not level %d at f = %g, which is %v: %w", eta, n, f, sl.lv.Energy, tiltwell.ErrLevel)
+	}
+	return c.buildWave(&w.b, n, sl.real.eta, sl.real.m, sl.real.S, 0, math.Inf(1))
+}
+
+// buildFrom fills w with the wavefunction of level n from its η_r (eta),
+// matched where the solver matches it.
+func (c *calc) buildFrom(w *sampledStackWave, n int, eta, tol, maxShift float64) error {
 	if !(c.n > 3 && c.n <= maxSelect) {
 		m := c.matchPoint()
 		return c.buildWave(&w.b, n, eta, m, c.scaleAt(m, eta), tol, maxShift)
 	}
-	// Match where the level lives, as solveReal does across thick inner
-	// barriers: where dD/dη is smallest at the level. Off the level (η_r
-	// is not η₀) that test can pick an interface where D is steep and far
-	// from its root, so the Newton steps are taken where the step is
-	// shortest, and the wave is built where D is flattest at the level
-	// they reach.
+	// Match where the level lives, as solveReal does: at the flattest
+	// interface among those whose level equation agrees with a root
+	// within maxShift of η_r (see flattest). The Newton steps to η₀ are
+	// taken there, and the wave is built where D is flattest at η₀.
 	ae := allPool.Get().(*allEval)
 	defer allPool.Put(ae)
 	c.evalAll(ae, eta, eta)
-	m, best := c.matchPoint(), math.Inf(1)
 	target := float64(n-1) * math.Pi
-	for i := 1; i < c.n; i++ {
-		r := c.match(ae.L[i], ae.R[i], ae.S[i])
-		if st := math.Abs((r.D - target) / r.Dp); r.Dp > 0 && st < best {
-			m, best = i, st
-		}
-	}
+	_, m := c.flattest(ae, target, 2*maxShift+1e-6*max(1, math.Abs(eta)))
 	if err := c.buildWave(&w.b, n, eta, m, ae.S[m], tol, maxShift); err != nil {
 		return err
 	}
 	eta0 := w.b.sw.eta
 	c.evalAll(ae, eta0, eta0)
-	if _, mf := c.flattest(ae); mf != m {
+	if _, mf := c.flattest(ae, target, 1e-6*max(1, math.Abs(eta0))); mf != m {
 		return c.buildWave(&w.b, n, eta0, mf, ae.S[mf], tol, maxShift-math.Abs(eta0-eta))
 	}
 	return nil
