@@ -18,6 +18,30 @@ import (
 // [Solver] in this module is.
 type StackSolver func(Stack) WaveSolver
 
+// WaveBuilder is a [WaveSolver] that builds the wavefunction of a level
+// it has just computed from the level itself, in storage the caller
+// reuses: without solving the level again and, in steady state, without
+// allocating. [Device.Lines] uses it when a solver implements it;
+// otherwise it calls Wavefunction at every field, which solves each level
+// a second time.
+type WaveBuilder interface {
+	WaveSolver
+	// BuildWave returns the wavefunction of level l at reduced field f,
+	// where l is a level that Levels returned for the same f: the
+	// function that Wavefunction(f, l.N) returns (to rounding), built
+	// from l instead of solving the level again. It implements [Spread]
+	// if Wavefunction's does.
+	//
+	// reuse is nil or a Wavefunction that BuildWave returned earlier and
+	// that the caller no longer uses: BuildWave may build the result in
+	// its storage, and then must not allocate. The result is safe for
+	// concurrent use until it is passed to BuildWave again.
+	//
+	// Errors follow the rules of [Solver.Levels]; an l that is not a
+	// level of the solver at f is an error wrapping [ErrLevel].
+	BuildWave(reuse Wavefunction, f float64, l Level) (Wavefunction, error)
+}
+
 // Device is a [Structure] prepared for sweeps of its interband
 // transitions over the applied field: its electron, heavy-hole and
 // light-hole problems in their reduced units (see [Structure.Reduce]),
@@ -33,12 +57,14 @@ type Device struct {
 	r       Reduced
 	ts      []Transition
 	solvers [3]WaveSolver // by Carrier; nil for a hole band no transition names
-	k       [3]int        // levels needed of each carrier
-	need    [3][]bool     // need[c][n−1]: some transition uses level n of c
-	layers  [3][]Layer
-	ifaces  []float64 // the interfaces, shared by every carrier's stack
-	zero    [3][]Level
-	pool    sync.Pool // of *deviceScratch
+	// builders holds the solvers that are WaveBuilders (nil otherwise).
+	builders [3]WaveBuilder
+	k        [3]int    // levels needed of each carrier
+	need     [3][]bool // need[c][n−1]: some transition uses level n of c
+	layers   [3][]Layer
+	ifaces   []float64 // the interfaces, shared by every carrier's stack
+	zero     [3][]Level
+	pool     sync.Pool // of *deviceScratch
 }
 
 // DeviceLine is one interband transition of a [Device] at one field, in
@@ -169,6 +195,7 @@ func NewDevice(s Structure, solve StackSolver, ts []Transition) (d *Device, err 
 			return nil, fmt.Errorf("tiltwell: device: the StackSolver returned a nil solver for the %s: %w", c.name(), ErrNoSolver)
 		}
 		d.solvers[c] = sv
+		d.builders[c], _ = sv.(WaveBuilder)
 		d.layers[c] = cw.Stack.Layers(nil)
 		lv, err := sv.Levels(nil, 0, d.k[c])
 		if err == nil {
@@ -300,19 +327,21 @@ type deviceScratch struct {
 // Each carrier is solved at its own reduced field (see [CarrierWell]),
 // the holes at −F/F₀(h), energies and wavefunctions alike. The fields are
 // computed in parallel, on at most runtime.GOMAXPROCS(0) goroutines; the
-// result does not depend on their number or timing. With capacity in dst,
-// Lines allocates nothing in steady state beyond what the solvers' Levels
-// and Wavefunction allocate (TestDeviceAllocs); the exact solver allocates
-// about 11 times for each wavefunction, 33 times per field for e1–hh1 and
-// e1–lh1.
+// result does not depend on their number or timing. A solver that is a
+// [WaveBuilder] (exact.Solver is) builds each wavefunction from the level
+// just solved, in the worker's reused storage; otherwise Lines calls
+// Wavefunction at every field. With capacity in dst, Lines allocates
+// nothing per field in steady state beyond what the solvers' Levels and
+// Wavefunction allocate, and at most once per call (TestDeviceAllocs);
+// exact.Solver allocates nothing (TestDeviceExactBuilder).
 //
 // Cost, with the exact solver on one core (BenchmarkDeviceLines: e1–hh1
 // and e1–lh1 of [DemoGaAsWell] at 10⁴ fields from 0 to 150 kV/cm; CPU
-// time on a shared machine): 150–200 µs per field, 1.5–2 s for the 10⁴
-// fields, 8 to 9 times the three level solves alone. More than half of it
-// is the exact solver building the three wavefunctions (it solves each
-// level again and bounds its support); the rest is the overlap
-// quadrature, about 330 wavefunction evaluations per field.
+// time on a shared machine): 36 µs per field, 0.36 s for the 10⁴ fields
+// (1.5 s when Lines called Wavefunction), 3 times the three level solves
+// alone (12 µs per field). Building the three wavefunctions from the
+// levels takes 7 µs of it; the overlap quadrature, about 330 wavefunction
+// evaluations per field at 35–50 ns each, most of the rest.
 //
 // Lines returns an error, and no lines, for a field that is NaN or
 // infinite or so large that a carrier's reduced field overflows
@@ -438,7 +467,12 @@ func (d *Device) field(out []DeviceLine, F float64, sc *deviceScratch) error {
 			if !ok {
 				continue
 			}
-			w, err := d.solvers[c].Wavefunction(f[c], n+1)
+			var w Wavefunction
+			if b := d.builders[c]; b != nil {
+				w, err = b.BuildWave(sc.waves[c][n], f[c], sc.lv[c][n])
+			} else {
+				w, err = d.solvers[c].Wavefunction(f[c], n+1)
+			}
 			if err == nil && (w == nil || isNil(w)) {
 				err = fmt.Errorf("nil wavefunction: %w", ErrNoSolver)
 			}
@@ -630,7 +664,13 @@ func startOrder(omega, need float64) int {
 			return i
 		}
 		q := 4 * float64(n) / eo
-		if q > 1 && 2*float64(n)*math.Log(q) >= need {
+		// ln q ≤ (q − 1)/√q for q ≥ 1: orders that fail this bound
+		// (with a margin for its rounding) fail the test, and need no
+		// logarithm.
+		if !(q > 1) || 2*float64(n)*(q-1)/math.Sqrt(q) < need*(1-1e-9) {
+			continue
+		}
+		if 2*float64(n)*math.Log(q) >= need {
 			return i
 		}
 	}

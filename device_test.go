@@ -369,9 +369,11 @@ func steppedWell(t *testing.T) tiltwell.Structure {
 // levels, and the overlap a reference quadrature of the same
 // wavefunctions: 40-point Gauss–Legendre rules on stretches at most 0.02
 // well widths long over the union of the two supports, split at the
-// interfaces. The reference is good to rounding (about 1e-15); the
+// interfaces, of the wavefunctions Lines integrates (built from the
+// levels). The reference is good to rounding (about 1e-15); the
 // estimate OverlapErr, with that rounding added, must cover the
-// difference at every line.
+// difference at every line. The wavefunctions of Wavefunction, which
+// solves each level again, must give the same overlap to 1e-13.
 func TestDeviceAssembly(t *testing.T) {
 	t.Parallel()
 	ts := []tiltwell.Transition{e1hh1, e1hh2, e1lh1}
@@ -403,11 +405,13 @@ func TestDeviceAssembly(t *testing.T) {
 			if want := r.Gap + le[l.E-1].Energy*ce.E1 + lh[l.H-1].Energy*ch.E1; math.Abs(l.Energy-want) > 1e-14 {
 				t.Errorf("%s %v at %v kV/cm: energy %.15f eV, gap + levels %.15f", name, l.Transition, l.Field/1e5, l.Energy, want)
 			}
-			we, err := se.Wavefunction(fe, l.E)
+			// The wavefunctions Lines integrates: built from the levels
+			// (exact.Solver is a WaveBuilder).
+			we, err := se.(tiltwell.WaveBuilder).BuildWave(nil, fe, le[l.E-1])
 			if err != nil {
 				t.Fatal(err)
 			}
-			wh, err := sh.Wavefunction(fh, l.H)
+			wh, err := sh.(tiltwell.WaveBuilder).BuildWave(nil, fh, lh[l.H-1])
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -434,6 +438,30 @@ func TestDeviceAssembly(t *testing.T) {
 			if diff := math.Abs(l.Overlap - ref); diff > l.OverlapErr+2e-15 {
 				t.Errorf("%s %v at %v kV/cm: overlap %.17g, reference %.17g: off by %.3g, estimate %.3g",
 					name, l.Transition, l.Field/1e5, l.Overlap, ref, diff, l.OverlapErr)
+			}
+			// The wavefunctions Wavefunction returns (each level solved
+			// again) give the same overlap to within their own accuracy.
+			we2, err := se.Wavefunction(fe, l.E)
+			if err != nil {
+				t.Fatal(err)
+			}
+			wh2, err := sh.Wavefunction(fh, l.H)
+			if err != nil {
+				t.Fatal(err)
+			}
+			g2 := func(x float64) float64 { return we2.At(x) * wh2.At(x) }
+			ref2 := 0.0
+			for i := 0; i+1 < len(edges); i++ {
+				n := int(math.Ceil((edges[i+1] - edges[i]) / 0.02))
+				for j := range n {
+					a := edges[i] + (edges[i+1]-edges[i])*float64(j)/float64(n)
+					b := edges[i] + (edges[i+1]-edges[i])*float64(j+1)/float64(n)
+					ref2 += quad.Fixed(g2, a, b, 40, quad.Legendre{}, 0)
+				}
+			}
+			if diff := math.Abs(ref2 - ref); diff > 1e-13 {
+				t.Errorf("%s %v at %v kV/cm: overlap %.17g of Wavefunction's wavefunctions, %.17g of BuildWave's: off by %.3g",
+					name, l.Transition, l.Field/1e5, ref2, ref, diff)
 			}
 		}
 	}
@@ -678,6 +706,66 @@ func TestDeviceAllocs(t *testing.T) {
 	}
 }
 
+// TestDeviceExactBuilder: exact.Solver is a WaveBuilder; the lines built
+// from its levels are those of the Wavefunction path (which solves every
+// level again) to 1e-13 (measured 2e-14: the wavefunctions of resonances
+// agree within the levels' own errors), and Lines allocates nothing per
+// field with it.
+func TestDeviceExactBuilder(t *testing.T) {
+	var _ tiltwell.WaveBuilder = exact.Solver{}
+	ts := []tiltwell.Transition{e1hh1, e1hh2, e1lh1}
+	fields := kvFields(0, 10, 40, 75, -90, 120, 150, 200)
+	for _, s := range []tiltwell.Structure{tiltwell.DemoGaAsWell(), tiltwell.DemoInGaAsWell(), steppedWell(t)} {
+		d, err := tiltwell.NewDevice(s, exactFor, ts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ref, err := tiltwell.NewDevice(s, func(st tiltwell.Stack) tiltwell.WaveSolver { return waveOnly{exact.Solver{Stack: st}} }, ts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		got, err := d.Lines(nil, fields)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, err := ref.Lines(nil, fields)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := range got {
+			g, w := got[i], want[i]
+			if g.Energy != w.Energy || g.Shift != w.Shift || g.ElectronEscape != w.ElectronEscape || math.Abs(g.Overlap-w.Overlap) > 1e-13 {
+				t.Errorf("%s %v at %g kV/cm: built %+v, Wavefunction path %+v", s.Slabs[1].Material.Name, g.Transition, tiltwell.InKVPerCM(g.Field), g, w)
+			}
+		}
+	}
+	if raceEnabled || testing.CoverMode() != "" {
+		t.Skip("allocation counts differ under -race and -cover")
+	}
+	d, err := tiltwell.NewDevice(tiltwell.DemoGaAsWell(), exactFor, ts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	many := make([]float64, 200)
+	for i := range many {
+		many[i] = tiltwell.KVPerCM(150 * float64(i) / 199)
+	}
+	dst := make([]tiltwell.DeviceLine, 0, len(ts)*len(many))
+	allocs := func(fields []float64) float64 {
+		return testing.AllocsPerRun(10, func() {
+			var err error
+			if dst, err = d.Lines(dst, fields); err != nil {
+				t.Fatal(err)
+			}
+		})
+	}
+	// As TestDeviceAllocs: at most one allocation per call, none per
+	// field.
+	if a, b := allocs(many[:20]), allocs(many); a > 1 || b > 1 {
+		t.Errorf("%v allocations for 20 fields, %v for 200: want at most 1", a, b)
+	}
+}
+
 // FuzzDeviceLines: any field gives finite lines or an error wrapping a
 // root sentinel.
 func FuzzDeviceLines(f *testing.F) {
@@ -685,7 +773,10 @@ func FuzzDeviceLines(f *testing.F) {
 	if err != nil {
 		f.Fatal(err)
 	}
-	for _, v := range []float64{0, 1e7, -3e7, 1e9, math.NaN(), 1e-300} {
+	// 4.65e-10 and 1e-8 V/m gave overlaps above 1 or a quadrature that did not
+	// settle before exact built wavefunctions behind thick barriers
+	// correctly (found by fuzzing).
+	for _, v := range []float64{0, 1e7, -3e7, 1e9, math.NaN(), 1e-300, 4.650297619047618e-10, 1e-8, 1e-3} {
 		f.Add(v)
 	}
 	f.Fuzz(func(t *testing.T, F float64) {
@@ -716,8 +807,9 @@ func FuzzDeviceLines(f *testing.F) {
 // the benchmark), fields evenly spaced from 0 to 150 kV/cm, and reports
 // ns/field. For the share of the solver, part=levels times only the
 // three level solves a field needs (electron, heavy and light hole
-// ground levels) and part=waves adds the three wavefunctions, as the
-// exact solver builds them; part=lines is the whole of Device.Lines.
+// ground levels) and part=waves adds the three wavefunctions, built from
+// the levels as Device.Lines builds them (exact.Solver.BuildWave);
+// part=lines is the whole of Device.Lines.
 func BenchmarkDeviceLines(b *testing.B) {
 	ts := []tiltwell.Transition{e1hh1, e1lh1}
 	d, err := tiltwell.NewDevice(tiltwell.DemoGaAsWell(), exactFor, ts)
@@ -735,6 +827,7 @@ func BenchmarkDeviceLines(b *testing.B) {
 				defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
 				dst := make([]tiltwell.DeviceLine, 0, len(ts)*n)
 				lv := make([]tiltwell.Level, 0, 1)
+				var waves [3]tiltwell.Wavefunction
 				b.ReportAllocs()
 				runs := 0
 				for b.Loop() {
@@ -757,7 +850,7 @@ func BenchmarkDeviceLines(b *testing.B) {
 								b.Fatal(err)
 							}
 							if part == "waves" {
-								if _, err := s.Wavefunction(f, 1); err != nil {
+								if waves[c], err = s.BuildWave(waves[c], f, lv[0]); err != nil {
 									b.Fatal(err)
 								}
 							}

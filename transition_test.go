@@ -471,8 +471,11 @@ func TestOverlapEstimate(t *testing.T) {
 					for i := range x {
 						ref += w[i] * a.At(x[i]) * b.At(x[i])
 					}
-					for o := range min(12, tiltwell.Orders) {
+					for o := range tiltwell.Orders {
 						nodes, integ := tiltwell.OverlapRule(o)
+						if len(nodes) > 128 {
+							break
+						}
 						ve, vh := make([]float64, len(nodes)), make([]float64, len(nodes))
 						for i, xi := range nodes {
 							ve[i], vh[i] = a.At(xi), b.At(xi)
@@ -556,6 +559,47 @@ func TestSweepSampler(t *testing.T) {
 	}
 	if a, b := allocs(short), allocs(long); a != b {
 		t.Errorf("%v allocations for 21 fields, %v for 201: Sweep allocates per field", a, b)
+	}
+}
+
+// waveOnly hides every method of a solver but those of
+// tiltwell.WaveSolver, so that Sweep and Device take the Wavefunction path.
+type waveOnly struct{ tiltwell.WaveSolver }
+
+// TestSweepExactSampler: exact.Solver is a WaveSampler; its samples give
+// the lines of the Wavefunction path (which solves every level again) to
+// rounding, and Sweep allocates nothing per field with it.
+func TestSweepExactSampler(t *testing.T) {
+	var _ tiltwell.WaveSampler = exact.Solver{}
+	ts := []tiltwell.Transition{{E: 1, H: 1}, {E: 1, H: 2}, {E: 2, H: 3}}
+	short, long := sweepFields(21), sweepFields(201)
+	long = append(long, -long[100], tiltwell.KVPerCM(900))
+	want, err := demoPair.Sweep(waveOnly{exact.Solver{}}, nil, long, ts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := demoPair.Sweep(exact.Solver{}, nil, long, ts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range got {
+		g, w := got[i], want[i]
+		if g.Shift != w.Shift || g.ShiftErr != w.ShiftErr || math.Abs(g.Overlap-w.Overlap) > 1e-14 || g.OverlapErr > 1e-12 {
+			t.Errorf("%v at %g V/m: sampled %+v, Wavefunction path %+v", g.Transition, g.Field, g, w)
+		}
+	}
+	if testing.CoverMode() != "" || raceEnabled {
+		t.Skip("allocation counts differ under -race and -cover")
+	}
+	allocs := func(fields []float64) float64 {
+		return testing.AllocsPerRun(20, func() {
+			if _, err := demoPair.Sweep(exact.Solver{}, nil, fields, ts); err != nil {
+				t.Fatal(err)
+			}
+		})
+	}
+	if a, b := allocs(short), allocs(long); a != b {
+		t.Errorf("%v allocations for %d fields, %v for %d: Sweep allocates per field", a, len(short), b, len(long))
 	}
 }
 

@@ -322,6 +322,26 @@ func TestTaylorTruncation(t *testing.T) {
 	}
 }
 
+// TestEstrin checks that Estrin's scheme, which the sampled wavefunctions
+// use, sums the Taylor series of Ai and Bi as Horner's rule does, to
+// rounding, over each node's interval.
+func TestEstrin(t *testing.T) {
+	t.Parallel()
+	h := airyStep / 2
+	for j := range series {
+		s := &series[j]
+		sa := math.Abs(s.ai[0]) + h*math.Abs(s.ai[1])
+		sb := math.Abs(s.bi[0]) + h*math.Abs(s.bi[1])
+		for i := -8; i <= 8; i++ {
+			d := float64(i) / 8 * h
+			a, b := estrin2(&s.ai, &s.bi, d)
+			if da, db := math.Abs(a-horner(&s.ai, d)), math.Abs(b-horner(&s.bi, d)); da > 4*eps*sa || db > 4*eps*sb {
+				t.Errorf("node z=%g δ=%g: Estrin − Horner: Ai %.3g, Bi %.3g", s.z, d, da, db)
+			}
+		}
+	}
+}
+
 // TestAiryAgainstBig checks Ai, Ai′, Bi, Bi′ against the 300-bit Maclaurin
 // sums of internal/bigairy across all three evaluation ranges, each relative
 // to itself for z > 0 and relative to the modulus for z < 0, where the

@@ -69,3 +69,25 @@ func BenchmarkWavefunction(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkBuildWave times building a wavefunction from its level
+// (BuildWave, reusing the storage) and evaluating it at the 100 points
+// of BenchmarkWavefunction, for the ratio to it.
+func BenchmarkBuildWave(b *testing.B) {
+	for _, f := range []float64{1, 100} {
+		b.Run(fmt.Sprintf("f=%g/n=3", f), func(b *testing.B) {
+			lv, err := Solver{}.Levels(nil, f, 3)
+			if err != nil {
+				b.Fatal(err)
+			}
+			var w tiltwell.Wavefunction
+			b.ReportAllocs()
+			for b.Loop() {
+				w, _ = Solver{}.BuildWave(w, f, lv[2])
+				for i := range 100 {
+					floatSink += w.At(float64(i) / 100)
+				}
+			}
+		})
+	}
+}

@@ -37,11 +37,17 @@ func (st *cstate) renorm() {
 		return
 	}
 	_, e := math.Frexp(m)
-	sc := complex(math.Ldexp(1, -e), 0)
-	st.u.v *= sc
-	st.u.d *= sc
-	st.w.v *= sc
-	st.w.d *= sc
+	f1, f2 := scaleSteps(e)
+	for _, f := range [2]float64{f1, f2} {
+		if f == 1 {
+			continue
+		}
+		sc := complex(f, 0)
+		st.u.v *= sc
+		st.u.d *= sc
+		st.w.v *= sc
+		st.w.d *= sc
+	}
 	st.lg += float64(e) * math.Ln2
 }
 

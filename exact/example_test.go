@@ -112,3 +112,26 @@ func ExampleSolver_finiteWell() {
 	// f=2 n=2 η=2.100709 Γ=0.019
 	// bound at f = 0: 3
 }
+
+// A sweep builds each wavefunction from the level just solved, in one
+// reused wavefunction's storage: no level is solved twice and nothing is
+// allocated once the storage exists.
+func ExampleSolver_BuildWave() {
+	s := exact.Solver{}
+	var levels []tiltwell.Level
+	var w tiltwell.Wavefunction
+	for _, f := range []float64{0, 10, 20} {
+		var err error
+		if levels, err = s.Levels(levels, f, 1); err != nil {
+			log.Fatal(err)
+		}
+		if w, err = s.BuildWave(w, f, levels[0]); err != nil {
+			log.Fatal(err)
+		}
+		fmt.Printf("f=%-2g η₁=%8.5f φ(0.25)=%.6f\n", f, levels[0].Energy, w.At(0.25))
+	}
+	// Output:
+	// f=0  η₁= 1.00000 φ(0.25)=1.000000
+	// f=10 η₁= 0.06603 φ(0.25)=1.624628
+	// f=20 η₁=-1.96854 φ(0.25)=1.826778
+}

@@ -87,12 +87,29 @@ func (st *rstate) renorm() {
 		return
 	}
 	_, e := math.Frexp(m)
-	sc := math.Ldexp(1, -e)
+	sc, sc2 := scaleSteps(e)
 	st.u.v *= sc
 	st.u.d *= sc
 	st.w.v *= sc
 	st.w.d *= sc
+	if sc2 != 1 {
+		st.u.v *= sc2
+		st.u.d *= sc2
+		st.w.v *= sc2
+		st.w.d *= sc2
+	}
 	st.lg += float64(e) * math.Ln2
+}
+
+// scaleSteps returns two factors whose product is 2^−e: 2^−e and 1 while
+// 2^−e is a float64, and two halves for a subnormal size (e < −1022,
+// where 2^−e overflows: a solution that has decayed across a thick
+// barrier to the subnormal range became ±Inf, and its wavefunction NaN).
+func scaleSteps(e int) (sc, sc2 float64) {
+	if e >= -1022 {
+		return math.Ldexp(1, -e), 1
+	}
+	return math.Ldexp(1, -e/2), math.Ldexp(1, -e+e/2)
 }
 
 // recorder receives the state at every step point while a wavefunction

@@ -164,15 +164,34 @@ const eps = 0x1p-52 // float64 machine epsilon, 2.22e-16
 // brute-force Runge–Kutta shooting at f > 0 agrees to 1e-15 in η_r (1e-11
 // for broad levels) and 1e-7 relative in Γ, its own limits.
 //
-// Speed (BenchmarkStackLevels, minima of five runs on the shared build
-// machine, in runs where ten infinite-wall levels took 2.7 µs): the lowest
-// three levels of a finite well with their widths in 1.9 µs at f = 0,
-// 5.3 µs at f = 1 and 7.4–7.6 µs at f = 2–3 (narrow, Γ ≤ 2e-7; two or
-// three evaluations of the level equation per level), 19–25 µs where the
-// third is broad (Γ = 0.014–0.13, complex Newton); the same well clad in
-// thin layers (five layers) takes 1.4–2.2 times as long; a plain
-// finite-difference solve of the three levels to 1e-6 takes 21–36 ms.
-// Levels allocates nothing once dst has room.
+// Speed (BenchmarkStackLevels, minima of three runs' CPU time on the
+// shared build machine): the lowest three levels of a finite well with
+// their widths in 1.8 µs at f = 0, 5.4 µs at f = 1 and 6.5–6.8 µs at
+// f = 2–3 (narrow, Γ ≤ 2e-7; two or three evaluations of the level
+// equation per level: the start, the zero-field level plus the Stark
+// shift of an infinite well of equivalent width, is off by 1e-3 to 5e-2
+// there), 18–25 µs where the third is broad (Γ = 0.014–0.13, complex
+// Newton); the same well clad in thin layers (five layers) takes 1.5
+// times as long at f = 0, 1.7 times at f = 1 and 1.8–1.9 times at
+// f = 2–3; a plain finite-difference solve of the three levels to 1e-6
+// takes 21–36 ms. Levels allocates nothing once dst has room.
+//
+// # Wavefunctions of solved levels
+//
+// [Solver.Wavefunction] solves its level again. [Solver.BuildWave] and
+// [Solver.SampleWave] ([tiltwell.WaveBuilder], [tiltwell.WaveSampler])
+// build the wavefunction from a level Levels returned, with one
+// evaluation of the level equation at its energy (two for a resonance
+// whose real level η₀ differs from η_r by more than Err), into reused
+// storage and without allocating. With 100 samples (BenchmarkBuildWave,
+// BenchmarkStackBuildWave against BenchmarkWavefunction,
+// BenchmarkStackWavefunction; CPU time as above): the benchmark well's
+// second level at f = 2 in 6.0 µs against 18 µs for Wavefunction (35 µs
+// before the two shared the construction), at f = 0, where a level costs
+// little, about the same (3–5 µs); infinite walls at f = 100 (samples in
+// the node table, 20 ns each) in 2.3 µs against 7.1 µs, at f = 1 (both
+// walls in the modulus–phase range, 60 ns a sample) in 6.4 µs against
+// 13 µs.
 type Solver struct {
 	// Stack is the layer structure; the zero Stack is the well with
 	// infinitely high walls.
@@ -200,6 +219,11 @@ type state struct {
 	gp         float64 // ∂G/∂η at the last evaluation
 	err        float64
 	iterations int
+	// When both walls were in the node table at the last evaluation:
+	// the node nearest z₁ and the phase series c(z₁), d(z₁) about it
+	// (nil otherwise). The wavefunction's sampler takes Θ(z₁) from them.
+	node1  *nodeSeries
+	c1, d1 float64
 }
 
 // wallScale holds the per-field constants of the level equation: α =
@@ -235,7 +259,7 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 		// difference (2/3)(x₀^(3/2) − x₁^(3/2)) in the form
 		// (2/3)α(x₀ + √(x₀x₁) + x₁)/(√x₀ + √x₁), which does not cancel
 		// at weak field, in double-double.
-		st.asym = true
+		st.asym, st.node1 = true, nil
 		s0, s1 := ddSqrt(x0), ddSqrt(x1)
 		tc0, rr0 := negPhaseCorr(x0.hi)
 		tc1, rr1 := negPhaseCorr(x1.hi)
@@ -248,7 +272,7 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 		gerr = eps * (1 + 2*math.Abs(tc0) + 2*math.Abs(tc1) + 1e-3*np.hi)
 		return g, gp, gerr
 	}
-	st.asym = false
+	st.asym, st.node1 = false, nil
 	z0, z1 := ddNeg(x0), ddNeg(x1)
 	var p0, p1 float64
 	if inTable(z0.hi) && inTable(z1.hi) {
@@ -262,6 +286,7 @@ func (st *state) eval(eta float64) (g, gp, gerr float64) {
 		g = ddAdd(k, dd{ang, 0}).hi
 		p0 = s0.m2 / (math.Pi * (c0*c0 + d0*d0))
 		p1 = s1.m2 / (math.Pi * (c1*c1 + d1*d1))
+		st.node1, st.c1, st.d1 = s1, c1, d1
 	} else {
 		th0, q0 := phaseDD(z0)
 		th1, q1 := phaseDD(z1)

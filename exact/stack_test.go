@@ -811,6 +811,21 @@ func FuzzStackLevels(f *testing.F) {
 				t.Fatalf("%v f=%g: level %d at %.17g below level %d at %.17g", st, field, i+1, l.Energy, i, prev)
 			}
 			prev = l.Energy
+			// Every level Levels returns builds its wavefunction, with a
+			// finite support and finite values.
+			w, err := Solver{Stack: st}.BuildWave(nil, field, l)
+			if err != nil {
+				t.Fatalf("%v f=%g: level %d: BuildWave: %v", st, field, l.N, err)
+			}
+			lo, hi := tiltwell.Support(w)
+			if !(lo < hi) || bad(lo) || bad(hi) {
+				t.Fatalf("%v f=%g: level %d: support [%v, %v]", st, field, l.N, lo, hi)
+			}
+			for _, x := range append([]float64{lo, hi, (lo + hi) / 2, lo - 1, hi + 1}, st.Interfaces(nil)...) {
+				if v := w.At(x); bad(v) {
+					t.Fatalf("%v f=%g: level %d: φ(%g) = %v", st, field, l.N, x, v)
+				}
+			}
 		}
 	})
 }

@@ -180,3 +180,26 @@ func TestFiniteDifferenceGrid(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkStackBuildWave times building a level's wavefunction from the
+// level (BuildWave, reusing the storage) and evaluating it at the 100
+// points of BenchmarkStackWavefunction, for the ratio to it.
+func BenchmarkStackBuildWave(b *testing.B) {
+	for _, f := range []float64{0, 2} {
+		b.Run(fmt.Sprintf("stack=well3/f=%g/n=2", f), func(b *testing.B) {
+			s := Solver{Stack: benchWell}
+			lv, err := s.Levels(nil, f, 2)
+			if err != nil {
+				b.Fatal(err)
+			}
+			var w tiltwell.Wavefunction
+			b.ReportAllocs()
+			for b.Loop() {
+				w, _ = s.BuildWave(w, f, lv[1])
+				for i := range 100 {
+					floatSink += w.At(-0.5 + 2*float64(i)/100)
+				}
+			}
+		})
+	}
+}

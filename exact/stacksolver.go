@@ -308,6 +308,24 @@ func (c *calc) nth(n int, f float64) (stackLevel, error) {
 	return stackLevel{}, fmt.Errorf("exact: level %d: %w", n, tiltwell.ErrLevel)
 }
 
+// mirrorSides reports whether the layers on the two sides of the
+// reference layer are mirror images of each other (widths, band edges and
+// masses), as in every symmetric stack.
+func (c *calc) mirrorSides() bool {
+	r := c.ref()
+	if 2*r != c.n-1 {
+		return false
+	}
+	for j := range r {
+		a, _ := c.st.Layer(j)
+		b, _ := c.st.Layer(c.n - 1 - j)
+		if a != b {
+			return false
+		}
+	}
+	return true
+}
+
 // model returns a starting value for level n when the reference layer has
 // confining sides (NaN otherwise): the zero-field level of the reference
 // well, from the phase condition
@@ -367,8 +385,14 @@ func (c *calc) model(n int) float64 {
 		xd := st.w.d * e
 		return math.Atan2(y, x), (yd*x - y*xd) / (x*x + y*y), true
 	}
+	// In a stack whose sides are mirror images (every symmetric stack)
+	// one side serves both.
+	same := c.mirrorSides()
 	g := func(k float64) (float64, float64, bool) {
 		dl, dld, ok1 := side(k, true)
+		if same {
+			return k + 2*dl - float64(n)*math.Pi, 1 + 2*dld, ok1
+		}
 		dr, drd, ok2 := side(k, false)
 		return k + dl + dr - float64(n)*math.Pi, 1 + dld + drd, ok1 && ok2
 	}
@@ -390,18 +414,23 @@ func (c *calc) model(n int) float64 {
 		if !ok {
 			return math.NaN()
 		}
+		if v == 0 {
+			break
+		}
 		if v > 0 {
 			hi = k
 		} else {
 			lo = k
 		}
 		nk := k - v/d
-		if !(nk > lo && nk < hi) {
-			nk = 0.5 * (lo + hi)
-		}
 		if math.Abs(nk-k) < 1e-8*k {
+			// Converged (a step this short may round onto the end of
+			// the bracket it came from; bisecting away would undo it).
 			k = nk
 			break
+		}
+		if !(nk > lo && nk < hi) {
+			nk = 0.5 * (lo + hi)
 		}
 		k = nk
 	}

@@ -121,7 +121,15 @@ func newWave(f float64, n int) (*Wave, error) {
 // waveOf returns the wavefunction of a solved level whose phase data are
 // those of its final η.
 func waveOf(st state) *Wave {
-	w := &Wave{n: st.n, scale: 1, st: st}
+	w := new(Wave)
+	w.fill(st)
+	return w
+}
+
+// fill sets w to the wavefunction of a solved level whose phase data are
+// those of its final η.
+func (w *Wave) fill(st state) {
+	*w = Wave{n: st.n, scale: 1, st: st}
 	if !st.asym {
 		w.th1, _ = phase(-st.x1)
 	}
@@ -135,7 +143,6 @@ func waveOf(st state) *Wave {
 		r := a1 / b1 * math.Exp(-2*zeta1)
 		w.scale = math.Sqrt(1 + r*r)
 	}
-	return w
 }
 
 // pdiff returns p(z₀) − p(z₁) > 0 at the solved level, formed without
