@@ -50,6 +50,8 @@ type finiteTally struct {
 	refused, extra                          int
 	worstPess, worstGPess, worstUnder       float64
 	worstPessAt, worstGPessAt, worstUnderAt string
+	worstGUnder                             float64
+	worstGUnderAt                           string
 }
 
 func (ft *finiteTally) add(t *testing.T, where string, b, e tiltwell.Level) {
@@ -82,6 +84,9 @@ func (ft *finiteTally) add(t *testing.T, where string, b, e tiltwell.Level) {
 		dg := math.Abs(b.Gamma - e.Gamma)
 		if dg > b.GammaErr+e.GammaErr {
 			ft.gunder++
+			if r := dg / (b.GammaErr + e.GammaErr); r > ft.worstGUnder {
+				ft.worstGUnder, ft.worstGUnderAt = r, where
+			}
 			t.Logf("%s: width %.6g, exact %.6g: error %.3g, estimate %.3g", where, b.Gamma, e.Gamma, dg, b.GammaErr)
 		}
 		if dg > 1e-12 {
@@ -99,11 +104,11 @@ func (ft *finiteTally) add(t *testing.T, where string, b, e tiltwell.Level) {
 // TestFiniteAgainstExact holds the finite-barrier levels, their error
 // estimates and the escape widths to exact.Solver{Stack} over the grid,
 // every level the exact solver confines (up to 12): estimates below the
-// true error on at most 1% of the points and never for a rigorous level;
-// the points where an estimate is more than 10× the true error (above
-// 1e-12) are counted and held to at most 5% (measured: 0.3% of the
-// energies and 3% of the widths; the package documentation states the
-// figures of the large grid).
+// true error on at most 1% of the points and never for a rigorous level,
+// and no estimate more than 10× the true error where that exceeds 1e-12
+// (measured: 1 of 356 energies and 1 of 232 widths below, the worst
+// ratios 6.2 and 9.9; the package documentation states the figures of
+// the large grid).
 func TestFiniteAgainstExact(t *testing.T) {
 	t.Parallel()
 	var ft finiteTally
@@ -144,8 +149,8 @@ func TestFiniteAgainstExact(t *testing.T) {
 	wg.Wait()
 	t.Logf("energies: %d points, %d below the true error (worst %.3g× at %s), %d more than 10× above it (worst %.3g× at %s)",
 		ft.points, ft.under, ft.worstUnder, ft.worstUnderAt, ft.pess, ft.worstPess, ft.worstPessAt)
-	t.Logf("widths: %d points, %d below, %d more than 10× above (worst %.3g× at %s); refused %d levels exact confines, %d extra",
-		ft.gpoints, ft.gunder, ft.gpess, ft.worstGPess, ft.worstGPessAt, ft.refused, ft.extra)
+	t.Logf("widths: %d points, %d below (worst %.3g× at %s), %d more than 10× above (worst %.3g× at %s); refused %d levels exact confines, %d extra",
+		ft.gpoints, ft.gunder, ft.worstGUnder, ft.worstGUnderAt, ft.gpess, ft.worstGPess, ft.worstGPessAt, ft.refused, ft.extra)
 	if raceEnabled {
 		return // a small part of the grid: too few points for the rates
 	}
@@ -158,8 +163,9 @@ func TestFiniteAgainstExact(t *testing.T) {
 	if float64(ft.gunder) > 0.01*float64(ft.gpoints) {
 		t.Errorf("%d of %d width estimates below the true error (more than 1%%)", ft.gunder, ft.gpoints)
 	}
-	if float64(ft.pess) > 0.05*float64(ft.points) || float64(ft.gpess) > 0.05*float64(ft.gpoints) {
-		t.Errorf("estimates more than 10× pessimistic on %d and %d points (more than 5%%)", ft.pess, ft.gpess)
+	if ft.pess > 0 || ft.gpess > 0 {
+		t.Errorf("estimates more than 10× pessimistic on %d energies and %d widths (worst %.3g× at %s, %.3g× at %s)",
+			ft.pess, ft.gpess, ft.worstPess, ft.worstPessAt, ft.worstGPess, ft.worstGPessAt)
 	}
 	if float64(ft.refused) > 0.03*float64(ft.points) || ft.extra > 0 {
 		t.Errorf("refused %d levels the exact solver confines, confined %d it does not", ft.refused, ft.extra)
@@ -173,7 +179,11 @@ var largeGrid = flag.Bool("basis.largegrid", false, "hold the finite-barrier lev
 // TestFiniteLargeGrid is TestFiniteAgainstExact on the large grid: barrier
 // heights 2, 3, 5, 10, 20, 50 with mass ratios 1, 1.5, 2 (symmetric) and
 // two asymmetric wells for each height, at 11 fields from 0 to 10 and −2,
-// every level the exact solver confines (up to 12).
+// every level the exact solver confines (up to 12): estimates below the
+// true error on at most 1% of the points, no energy estimate more than
+// 10× the true error (above 1e-12), and at most 2 such widths (measured:
+// 1 of 706, 11.7× at the well (2, 1; 4, 2), f = 0.1, n = 2, where the
+// error of Γ changes sign between basis sizes).
 func TestFiniteLargeGrid(t *testing.T) {
 	if !*largeGrid {
 		t.Skip("run with -basis.largegrid")
@@ -210,10 +220,13 @@ func TestFiniteLargeGrid(t *testing.T) {
 	wg.Wait()
 	t.Logf("energies: %d points, %d below the true error (worst %.3g× at %s), %d more than 10× above it (worst %.3g× at %s)",
 		ft.points, ft.under, ft.worstUnder, ft.worstUnderAt, ft.pess, ft.worstPess, ft.worstPessAt)
-	t.Logf("widths: %d points, %d below, %d more than 10× above (worst %.3g× at %s); refused %d levels exact confines, %d extra",
-		ft.gpoints, ft.gunder, ft.gpess, ft.worstGPess, ft.worstGPessAt, ft.refused, ft.extra)
+	t.Logf("widths: %d points, %d below (worst %.3g× at %s), %d more than 10× above (worst %.3g× at %s); refused %d levels exact confines, %d extra",
+		ft.gpoints, ft.gunder, ft.worstGUnder, ft.worstGUnderAt, ft.gpess, ft.worstGPess, ft.worstGPessAt, ft.refused, ft.extra)
 	if float64(ft.under) > 0.01*float64(ft.points) || float64(ft.gunder) > 0.01*float64(ft.gpoints) {
 		t.Errorf("estimates below the true error on more than 1%% of the points")
+	}
+	if ft.pess > 0 || ft.gpess > 2 {
+		t.Errorf("estimates more than 10× pessimistic on %d energies and %d widths", ft.pess, ft.gpess)
 	}
 }
 
