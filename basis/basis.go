@@ -236,7 +236,9 @@ type Solver struct {
 	// 0 it is chosen for each field from the decay of the highest level
 	// asked for (at most DefaultBox); on the downhill side under a field
 	// the box never reaches past that level's classical turning point. It
-	// must be finite, 0 ≤ Box ≤ MaxBox.
+	// must be finite, 0 ≤ Box ≤ MaxBox. A Box is used shortened by 4.0e-4
+	// of itself, so that round depths beside round band edges do not make
+	// the box's levels degenerate.
 	Box float64
 }
 
