@@ -84,12 +84,14 @@
 // potential); the wall's error, from the part of G beyond the basis,
 // which falls as N⁻³: measured from the change of η − θ and Γ since a
 // smaller basis on the same box (0.7N, or the previous size of the
-// automatic choice), over (N/N′)³ − 1, taken twice (that measure's
-// median ratio to the true error is 1.0 on the large grid below); for a
-// narrow width, the orders its formula drops, (Γ/2)²χ and Γ's relative Γχ(ε + Γχ/2)/2 (χ = ∂ln Γ/∂η, ε = Ai/Bi at the interface),
-// twice the Ritz function's error at the interface (from the residual,
-// by |δ(ξ)|² ≤ 2‖δ‖‖δ′‖), and ∂Γ/∂η = χΓ times η's error; and the rounding
-// of the sums and of the Newton iteration.
+// automatic choice), over (N/N′)³ − 1, taken twice (the median ratio
+// of the estimate to the true error is then 2.0 where that term
+// dominates on the large grid below); for a narrow width, the orders its
+// formula drops, (Γ/2)²χ and Γ's relative Γχ(ε + Γχ/2)/2 (χ = ∂ln Γ/∂η,
+// ε = Ai/Bi at the interface), twice the Ritz function's error at the
+// interface (from the residual, by |δ(ξ)|² ≤ 2‖δ‖‖δ′‖), and
+// ∂Γ/∂η = χΓ times η's error; and the rounding of the sums and of the
+// Newton iteration.
 //
 // At f = 0 without a potential the levels are the Dirichlet box's roots
 // E_D, upper bounds (min–max: the box's functions are admissible for the
