@@ -915,15 +915,20 @@ func (r *Report) String() string {
 	fmt.Fprintf(&b, "  error estimates: %d of %d undershot the true error (%d rigorous, %d gross, none allowed; %d small, %d allowed)\n",
 		r.Undershoots, r.Points, r.RigorousUndershoots, r.GrossUndershoots,
 		r.Undershoots-r.RigorousUndershoots-r.GrossUndershoots, r.Allowed)
+	shown := 0
 	if r.Undershoots > 0 {
-		p := r.WorstUndershoot
-		fmt.Fprintf(&b, "    worst: %s\n", p.describe())
+		fmt.Fprintf(&b, "    worst: %s\n", r.WorstUndershoot.describe())
+		shown++
 	}
 	for _, p := range r.Undershot {
+		if p == r.WorstUndershoot {
+			continue // listed above as the worst
+		}
 		fmt.Fprintf(&b, "    %s\n", p.describe())
+		shown++
 	}
-	if r.Undershoots > len(r.Undershot) {
-		fmt.Fprintf(&b, "    … and %d more\n", r.Undershoots-len(r.Undershot))
+	if r.Undershoots > shown {
+		fmt.Fprintf(&b, "    … and %d more\n", r.Undershoots-shown)
 	}
 	if r.Ratio.Value > 1 {
 		fmt.Fprintf(&b, "  most pessimistic estimate: %.3g × the true error at f=%g n=%d", r.Ratio.Value, r.Ratio.F, r.Ratio.N)

@@ -232,6 +232,9 @@ func TestCheckGrossUndershoot(t *testing.T) {
 		t.Errorf("worst undershoot %+v, want a gross one at f > 5, n=3 (η = %v ± %v)", w, e3.Energy, e3.Err)
 	}
 	s := r.String()
+	if n := strings.Count(s, fmt.Sprintf("f=%g n=3: gross undershoot", w.F)); n != 1 {
+		t.Errorf("the worst undershoot is listed %d times, want once:\n%s", n, s)
+	}
 	for _, want := range []string{
 		": FAIL\n",
 		"2 gross, none allowed",
