@@ -1,6 +1,7 @@
 package exact
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sync"
@@ -292,9 +293,17 @@ func wronskSlope(r *evalResult) float64 {
 // share their roots and the count of levels below η) and the shortest
 // Newton step is taken: a level far from an interface makes the
 // equation there steep, while it is smooth where the level lives.
-func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, error) {
+//
+// With checkHi, hi is the confinement ceiling and ghi a stand-in: D is
+// evaluated there only when an Illinois step needs the bracket while hi is
+// still the ceiling, and solveReal returns errAboveCeiling if D does not
+// exceed (n−1)π there by more than its rounding. A root reached by Newton
+// steps needs no such check: D increases with η, so a root below the
+// ceiling is the level.
+func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64, checkHi bool) (realLevel, error) {
 	target := float64(n-1) * math.Pi
 	lo0, w0 := lo, hi-lo
+	hi0 := hi
 	eta := guess
 	if !(eta > lo && eta < hi) {
 		eta = mid(lo, hi)
@@ -326,13 +335,23 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			return 0, false
 		}
 		next := eta - g/dp
-		if u := (eta - lo0) / w0; u > 0 && u < 1 {
-			th := math.Asin(math.Sqrt(u))
-			dth := -g / (dp * w0 * math.Sin(2*th))
-			if th1 := th + dth; th1 > 0 && th1 < math.Pi/2 {
-				// Δη = w₀ sin(θ₁ + θ) sin(θ₁ − θ), without
-				// cancellation.
-				next = eta + w0*math.Sin(th1+th)*math.Sin(th1-th)
+		if u, v := (eta-lo0)/w0, (hi0-eta)/w0; u > 0 && v > 0 {
+			// sin θ, cos θ and sin 2θ, cos 2θ without θ itself.
+			sn, cs := math.Sqrt(u), math.Sqrt(v)
+			s2, c2 := 2*sn*cs, v-u
+			dth := -g / (dp * w0 * s2)
+			// θ₁ = θ + Δθ must stay in (0, π/2); θ ≥ sin θ and
+			// π/2 − θ ≥ cos θ settle most steps without θ.
+			in := dth > -sn && dth < cs
+			if !in {
+				th := math.Atan2(sn, cs)
+				in = th+dth > 0 && th+dth < math.Pi/2
+			}
+			if in {
+				// Δη = w₀ sin(θ₁ + θ) sin(θ₁ − θ) = w₀ sin(2θ + Δθ)
+				// sin Δθ, without cancellation.
+				sd, cd := math.Sincos(dth)
+				next = eta + w0*(s2*cd+c2*sd)*sd
 			}
 		}
 		return next, next > lo && next < hi
@@ -428,7 +447,19 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			}
 		}
 		// Illinois step between the bracket ends, and a fresh look at
-		// where to match.
+		// where to match. Its top end must hold a true value of D: at an
+		// unchecked ceiling, evaluate it now.
+		if checkHi && hi == hi0 {
+			checkHi = false
+			rhi, err := c.evalChecked(n, hi, c.matchPoint())
+			if err != nil {
+				return realLevel{}, err
+			}
+			if !(rhi.D-target > rhi.errD) {
+				return realLevel{}, errAboveCeiling
+			}
+			ghi = rhi.D - target
+		}
 		full = sel
 		a, b, ga, gb := lo, hi, glo, ghi
 		switch {
@@ -453,6 +484,10 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	}
 	return realLevel{}, fmt.Errorf("exact: level %d at f = %g: %w", n, c.f, tiltwell.ErrNoConvergence)
 }
+
+// errAboveCeiling is solveReal's report that D does not reach the
+// level's target below the ceiling: the level is not confined.
+var errAboveCeiling = errors.New("exact: level above the ceiling")
 
 var allPool = sync.Pool{New: func() any { return new(allEval) }}
 

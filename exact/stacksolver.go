@@ -21,7 +21,6 @@ type notConfined string
 // solveStackLevel solves level n of c above floor (the level below, or
 // −Inf) from the starting hint (NaN for none).
 func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfined, error) {
-	target := float64(n-1) * math.Pi
 	vmin, ec, ub := c.bounds(n)
 	lo := max(vmin, floor)
 	hi := min(ec, ub)
@@ -36,28 +35,23 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 		guess = mid(lo, hi)
 	}
 	// D − (n−1)π at the top of the bracket: below the Dirichlet bound a
-	// level is certain (min–max), and only a stand-in is needed; at the
-	// ceiling it must be evaluated, and a level within rounding of the
-	// ceiling is not confined.
+	// level is certain (min–max), and only a stand-in is needed. At the
+	// ceiling the level is not certain, but D is increasing: a root that
+	// Newton steps reach inside the bracket is the level. solveReal
+	// evaluates D at the ceiling only when it needs the bracket (a
+	// level within rounding of the ceiling is not confined).
 	ghi := math.Pi / 2
-	if hi == ec {
-		m := c.matchPoint()
-		rhi, err := c.evalChecked(n, hi, m)
-		if err != nil {
-			return stackLevel{}, "", err
-		}
-		if !(rhi.D-target > rhi.errD) {
-			return stackLevel{}, "above the barrier", nil
-		}
-		ghi = rhi.D - target
-	}
+	checkHi := !(ub < ec)
 	// D is −π exactly at the level below; below the lowest band edge it
 	// lies in (−π, 0).
 	glo := -math.Pi
 	if floor < vmin {
 		glo = -(float64(n) - 0.5) * math.Pi
 	}
-	rl, err := c.solveReal(n, lo, hi, glo, ghi, guess)
+	rl, err := c.solveReal(n, lo, hi, glo, ghi, guess, checkHi)
+	if err == errAboveCeiling {
+		return stackLevel{}, "above the barrier", nil
+	}
 	if err != nil {
 		return stackLevel{}, "", err
 	}
