@@ -66,6 +66,16 @@ type evalResult struct {
 	D, Dp, errD float64
 	// The left and right solutions at the matching interface.
 	L, R rstate
+	// The left boundary condition at this η (leftBC), when hasBC: the
+	// escape width reuses it.
+	bc    leftEdge
+	hasBC bool
+}
+
+// leftEdge is what leftBC returns at one η.
+type leftEdge struct {
+	lam           dual
+	lnPrest, zeta float64
 }
 
 // angle returns the line angle of (w, Sφ) in [0, π) and its η-derivative.
@@ -83,8 +93,9 @@ func angle(st *rstate, S float64) (a, ad float64) {
 // eval evaluates the level equation at η with matching interface m and
 // Prüfer scale S.
 func (c *calc) eval(eta float64, m int, S float64) evalResult {
-	lam, _, _ := c.leftBC(eta)
-	res := evalResult{L: rstate{u: dual{1, 0}, w: lam}}
+	var bc leftEdge
+	bc.lam, bc.lnPrest, bc.zeta = c.leftBC(eta)
+	res := evalResult{L: rstate{u: dual{1, 0}, w: bc.lam}}
 	for j := 1; j < m; j++ {
 		c.cross(&res.L, j, 1, eta, nil)
 	}
@@ -92,7 +103,9 @@ func (c *calc) eval(eta float64, m int, S float64) evalResult {
 	for j := c.n - 2; j >= m; j-- {
 		c.cross(&res.R, j, -1, eta, nil)
 	}
-	return c.match(res.L, res.R, S)
+	res = c.match(res.L, res.R, S)
+	res.bc, res.hasBC = bc, true
+	return res
 }
 
 // bounds returns, for level n: the lowest band edge vmin of the problem on
@@ -149,14 +162,15 @@ const maxSelect = 64
 type allEval struct {
 	L, R [maxSelect]rstate
 	S    [maxSelect]float64
+	bc   leftEdge
 }
 
 // evalAll evaluates the level equation at every inner interface at once:
 // the left solution is carried rightward and the right one leftward
 // through all inner layers. The Prüfer scales S are those at η = ref.
 func (c *calc) evalAll(a *allEval, eta, ref float64) {
-	lam, _, _ := c.leftBC(eta)
-	a.L[1] = rstate{u: dual{1, 0}, w: lam}
+	a.bc.lam, a.bc.lnPrest, a.bc.zeta = c.leftBC(eta)
+	a.L[1] = rstate{u: dual{1, 0}, w: a.bc.lam}
 	for i := 2; i < c.n; i++ {
 		a.L[i] = a.L[i-1]
 		c.cross(&a.L[i], i-1, 1, eta, nil)
@@ -213,6 +227,7 @@ func (c *calc) flattest(a *allEval, target, slack float64) (evalResult, int) {
 		m = c.matchPoint()
 		res = c.match(a.L[m], a.R[m], a.S[m])
 	}
+	res.bc, res.hasBC = a.bc, true
 	return res, m
 }
 
@@ -376,6 +391,7 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64, checkHi bool) (
 			if !ok {
 				r = c.match(ae.L[m], ae.R[m], ae.S[m])
 			}
+			r.bc, r.hasBC = ae.bc, true
 			S = ae.S[m]
 			full = false
 			havePrev = false
