@@ -406,7 +406,15 @@ func (c *calc) model(n int) float64 {
 	if !(k > lo && k < hi) {
 		k = 0.5 * (lo + hi)
 	}
-	// A start good to about 1e-8 is all the solver needs.
+	// A start good to about 1e-8 is all the solver needs. Where the
+	// Stark shift (about C_n f² for the infinite well, secondOrder) is
+	// above 1e-4, the shift's own error is far larger than that, and a
+	// Newton step below 1e-4 k, whose result is good to about 1e-8, is
+	// taken without evaluating g again to confirm it.
+	short := 1e-8
+	if math.Abs(secondOrder(n))*c.f*c.f > 1e-4 {
+		short = 1e-4
+	}
 	for range 8 {
 		v, d, ok := g(k)
 		if !ok {
@@ -421,7 +429,7 @@ func (c *calc) model(n int) float64 {
 			lo = k
 		}
 		nk := k - v/d
-		if math.Abs(nk-k) < 1e-8*k {
+		if math.Abs(nk-k) < short*k {
 			// Converged (a step this short may round onto the end of
 			// the bracket it came from; bisecting away would undo it).
 			k = nk
