@@ -189,8 +189,9 @@ var taylorInv, taylorK = func() (inv, kk [maxTaylor]float64) {
 }()
 
 // taylorPart carries st from x0 to x1 (either direction) through part of a
-// layer with edge v and mass mu at field f ≥ 0, in Taylor steps.
-func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg segInfo) {
+// layer with edge v and mass mu at field f > 0, in Taylor steps; s is the
+// layer's Airy scale (π²μf)^(1/3) (layerScale.s).
+func taylorPart(st *rstate, x0, x1, v, mu, f, eta, s float64, rec recorder, seg segInfo) {
 	L := x1 - x0
 	if L == 0 {
 		return
@@ -199,7 +200,7 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg seg
 	q0 := v + f*(x0-0.5) - eta
 	q1 := v + f*(x1-0.5) - eta
 	lmax := p2 * mu * max(math.Abs(q0), math.Abs(q1))
-	scale := max(math.Sqrt(lmax), math.Cbrt(p2*mu*f))
+	scale := max(math.Sqrt(lmax), s)
 	nf := math.Ceil(math.Abs(L) * scale / stepTheta)
 	if !(nf <= maxSteps) || st.steps+int(nf) > maxSteps || st.over {
 		st.over = true
@@ -234,7 +235,7 @@ func allowedPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg se
 		milnePart(st, x0, x1, v, mu, f, eta, &ls)
 		return
 	}
-	taylorPart(st, x0, x1, v, mu, f, eta, rec, seg)
+	taylorPart(st, x0, x1, v, mu, f, eta, ls.s, rec, seg)
 }
 
 // zeroFieldLayer carries st across a whole layer of width w (w < 0 for
@@ -532,15 +533,15 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 		if xt > lo {
 			// An allowed stretch and a thin forbidden one.
 			if dir > 0 {
-				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
-				taylorPart(st, xt, hi, v, mu, f, eta, rec, seg)
+				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, ls, c.taylorOnly)
+				taylorPart(st, xt, hi, v, mu, f, eta, ls.s, rec, seg)
 			} else {
-				taylorPart(st, hi, xt, v, mu, f, eta, rec, seg)
-				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
+				taylorPart(st, hi, xt, v, mu, f, eta, ls.s, rec, seg)
+				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, ls, c.taylorOnly)
 			}
 			return
 		}
-		taylorPart(st, x0, x1, v, mu, f, eta, rec, seg)
+		taylorPart(st, x0, x1, v, mu, f, eta, ls.s, rec, seg)
 		return
 	}
 	a, b := ls.forb(qlo), ls.forb(qhi)
@@ -548,7 +549,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	seg.kind, seg.ls, seg.a, seg.b, seg.la, seg.lb = segThick, ls, a, b, xt, hi
 	if dir > 0 {
 		if xt > lo {
-			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
+			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, ls, c.taylorOnly)
 		}
 		if rec != nil {
 			seg.to = hi
@@ -563,6 +564,6 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	}
 	thickLeft(st, &a, &b, gAi)
 	if xt > lo {
-		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
+		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, ls, c.taylorOnly)
 	}
 }
