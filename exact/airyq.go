@@ -76,8 +76,12 @@ type fpoint struct {
 type layerScale struct{ mu, f, s, c float64 }
 
 func newLayerScale(mu, f float64) layerScale {
-	a := math.Cbrt(math.Pi * math.Pi * mu)
-	cf := math.Cbrt(f)
+	return scaleFrom(mu, f, math.Cbrt(math.Pi*math.Pi*mu), math.Cbrt(f))
+}
+
+// scaleFrom is newLayerScale from a = (π²μ)^(1/3) and cf = f^(1/3), so
+// that the layers of a stack share their cube roots.
+func scaleFrom(mu, f, a, cf float64) layerScale {
 	return layerScale{mu: mu, f: f, s: a * cf, c: a / (cf * cf)}
 }
 

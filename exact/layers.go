@@ -457,12 +457,31 @@ func newCalc(st tiltwell.Stack, f float64) calc {
 	af, mir := tiltwell.Fold(f)
 	c := calc{st: st, n: st.Len(), f: af, mirror: mir}
 	if af > 0 {
-		for j := range min(c.n, cachedScales) {
-			_, _, _, mu := c.layer(j)
-			c.scales[j] = newLayerScale(mu, af)
+		// One cube root of f, and one of π²μ per mass (the layers
+		// repeat a few).
+		cf := math.Cbrt(af)
+		var roots [cachedScales]float64 // (π²μ)^(1/3) of the cached layers
+		scaleOf := func(i int) layerScale {
+			_, _, _, mu := c.layer(i)
+			a := math.NaN()
+			for j := range min(i, cachedScales) {
+				if c.scales[j].mu == mu {
+					a = roots[j]
+					break
+				}
+			}
+			if math.IsNaN(a) {
+				a = math.Cbrt(math.Pi * math.Pi * mu)
+			}
+			if i < cachedScales {
+				roots[i] = a
+			}
+			return scaleFrom(mu, af, a, cf)
 		}
-		_, _, _, mu := c.layer(c.n - 1)
-		c.scales[cachedScales] = newLayerScale(mu, af)
+		for j := range min(c.n, cachedScales) {
+			c.scales[j] = scaleOf(j)
+		}
+		c.scales[cachedScales] = scaleOf(c.n - 1)
 	}
 	return c
 }

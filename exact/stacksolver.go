@@ -450,7 +450,9 @@ func (c *calc) model(n int) float64 {
 		return math.NaN()
 	}
 	nn := float64(n) * float64(n)
-	alpha := math.Cbrt(math.Pi * math.Pi * fl)
+	// α = (π² f L³)^(1/3) = L (π²f)^(1/3), the reference layer's scale
+	// (its mass ratio is 1).
+	alpha := L * c.scale(r).s
 	tri := -fl/2 - airyZero(n)*(alpha*alpha/(math.Pi*math.Pi))
 	inf := guess(fl, alpha, n, tri, math.NaN(), max(nn-fl/2, tri), nn+fl/2)
 	return eta0 + (inf-nn)/(L*L)
