@@ -25,13 +25,13 @@ const narrowLimit = 1e-5
 // leftBC returns the log-derivative w/φ at interface 1 that the solution
 // has coming from the left: the decaying exponential at f = 0, and the
 // real part (s/μ)M′/M of the outgoing wave's log-derivative at f > 0; with,
-// for f > 0, ln P = lnPrest − 2ζ of the flux factor P (the imaginary part
-// is −P).
-func (c *calc) leftBC(eta float64) (lam dual, lnPrest, zeta float64) {
+// for f > 0, the flux factor P = pre·e^(−2ζ) (the imaginary part is −P;
+// pre = 1 and ζ = 0 at f = 0).
+func (c *calc) leftBC(eta float64) (lam dual, pre, zeta float64) {
 	_, hi, v, mu := c.layer(0)
 	if c.f == 0 {
 		k := math.Pi * math.Sqrt(mu*max(v-eta, 0))
-		return dual{k / mu, -math.Pi * math.Pi / (2 * k)}, 0, 0
+		return dual{k / mu, -math.Pi * math.Pi / (2 * k)}, 1, 0
 	}
 	q := max(v+c.f*(hi-0.5)-eta, 0)
 	ls := c.scale(0)
@@ -74,8 +74,8 @@ type evalResult struct {
 
 // leftEdge is what leftBC returns at one η.
 type leftEdge struct {
-	lam           dual
-	lnPrest, zeta float64
+	lam       dual
+	pre, zeta float64
 }
 
 // angle returns the line angle of (w, Sφ) in [0, π) and its η-derivative.
@@ -94,7 +94,7 @@ func angle(st *rstate, S float64) (a, ad float64) {
 // Prüfer scale S.
 func (c *calc) eval(eta float64, m int, S float64) evalResult {
 	var bc leftEdge
-	bc.lam, bc.lnPrest, bc.zeta = c.leftBC(eta)
+	bc.lam, bc.pre, bc.zeta = c.leftBC(eta)
 	res := evalResult{L: rstate{u: dual{1, 0}, w: bc.lam}}
 	for j := 1; j < m; j++ {
 		c.cross(&res.L, j, 1, eta, nil)
@@ -169,7 +169,7 @@ type allEval struct {
 // the left solution is carried rightward and the right one leftward
 // through all inner layers. The Prüfer scales S are those at η = ref.
 func (c *calc) evalAll(a *allEval, eta, ref float64) {
-	a.bc.lam, a.bc.lnPrest, a.bc.zeta = c.leftBC(eta)
+	a.bc.lam, a.bc.pre, a.bc.zeta = c.leftBC(eta)
 	a.L[1] = rstate{u: dual{1, 0}, w: a.bc.lam}
 	for i := 2; i < c.n; i++ {
 		a.L[i] = a.L[i-1]

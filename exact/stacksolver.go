@@ -144,9 +144,9 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	Gd := v.u.d*R.w.v + v.u.v*R.w.d - v.w.d*R.u.v - v.w.v*R.u.d
 	bc := rl.res.bc
 	if !rl.res.hasBC {
-		bc.lam, bc.lnPrest, bc.zeta = c.leftBC(rl.evalEta)
+		bc.lam, bc.pre, bc.zeta = c.leftBC(rl.evalEta)
 	}
-	lam, lnPrest, zetaI := bc.lam, bc.lnPrest, bc.zeta
+	lam, lnPrest, zetaI := bc.lam, math.Log(bc.pre), bc.zeta
 	_, _, _, mu0 := c.layer(0)
 	lnScale := lnPrest - 2*zetaI + v.lg - L.lg
 	ratio := -2 * G / Fp // Γ = ratio · e^lnScale
