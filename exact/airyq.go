@@ -261,13 +261,7 @@ func (ls *layerScale) modulusBC(p *fpoint) (lam dual, pre, zeta float64) {
 // cc′ + dd′ = M_j² M M′, so M′/M and M² need two Horner sums and no
 // exponential. ζ is returned as 0 (pre is then P itself).
 func (ls *layerScale) modulusTable(z float64) (lam dual, pre, zeta float64) {
-	s, cs, ds := tableCD(dd{z, 0})
-	d := z - s.z
-	var cp, dp float64
-	for k := s.nt - 1; k >= 1; k-- {
-		cp = cp*d + float64(k)*s.c[k]
-		dp = dp*d + float64(k)*s.d[k]
-	}
+	s, cs, ds, cp, dp := tableCDD(dd{z, 0})
 	q := cs*cs + ds*ds
 	m2 := q / s.m2
 	mp := (cs*cp + ds*dp) / q
