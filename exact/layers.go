@@ -30,8 +30,10 @@ import (
 //     whose coefficients obey (k+2)(k+1) c_(k+2) = λ c_k + π²μf c_(k−1)
 //     (DLMF 9.2.1 in these variables); steps are short enough
 //     (|h|·max(√|λ|, (π²μf)^(1/3)) ≤ stepTheta) that a step holds at most
-//     one zero of φ and the series needs about 20 terms. At f → 0 this is
-//     the zero-field transfer.
+//     one zero of φ and the series needs about 20 terms (across a stretch
+//     forbidden throughout, while levels are solved, |h|·√|λ| may reach
+//     2·stepTheta, about 30 terms). At f → 0 this is the zero-field
+//     transfer.
 //   - f > 0 across a thick forbidden part (ζ grows by 20 or more): the
 //     growing Airy solution alone (the decaying one is below e^(−40) of
 //     it at the far end), from the log-derivatives of Ai and Bi at both
@@ -200,7 +202,17 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta, s float64, rec recorder, seg 
 	q0 := v + f*(x0-0.5) - eta
 	q1 := v + f*(x1-0.5) - eta
 	lmax := p2 * mu * max(math.Abs(q0), math.Abs(q1))
-	scale := max(math.Sqrt(lmax), s)
+	kscale := math.Sqrt(lmax)
+	if rec == nil && q0 >= 0 && q1 >= 0 {
+		// Forbidden throughout (q is linear): φ has at most one zero
+		// there whatever the step, and the terms of a step twice as
+		// long (about 30) fall like those of cosh, so that the step
+		// loses to cancellation what the two short ones would
+		// together. A recorded wavefunction keeps the short pieces
+		// its samples and norm integrals are made for.
+		kscale /= 2
+	}
+	scale := max(kscale, s)
 	nf := math.Ceil(math.Abs(L) * scale / stepTheta)
 	if !(nf <= maxSteps) || st.steps+int(nf) > maxSteps || st.over {
 		st.over = true
