@@ -365,7 +365,14 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64, checkHi bool) (
 			if in {
 				// Δη = w₀ sin(θ₁ + θ) sin(θ₁ − θ) = w₀ sin(2θ + Δθ)
 				// sin Δθ, without cancellation.
-				sd, cd := math.Sincos(dth)
+				var sd, cd float64
+				if t := dth * dth; t < 1e-6 {
+					// The series, good to 1e-13 of the step
+					// (the iteration needs far less).
+					sd, cd = dth*(1-t/6), 1-t/2
+				} else {
+					sd, cd = math.Sincos(dth)
+				}
 				next = eta + w0*(s2*cd+c2*sd)*sd
 			}
 		}
