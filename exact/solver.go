@@ -165,7 +165,7 @@ const eps = 0x1p-52 // float64 machine epsilon, 2.22e-16
 // for broad levels) and 1e-7 relative in Γ, its own limits.
 //
 // Speed (BenchmarkStackLevels, minima of ten runs' CPU time on the
-// shared build machine; medians 2–4% higher): the lowest three levels of
+// shared build machine; medians 2–5% higher): the lowest three levels of
 // a finite well with their widths in 1.5 µs at f = 0, 3.8 µs at f = 1 and
 // 4.8–4.9 µs at f = 2–3 (narrow, Γ ≤ 2e-7; two or three evaluations of
 // the level equation per level, the one at the confinement ceiling only
