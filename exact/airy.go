@@ -167,6 +167,25 @@ func tableCD(zd dd) (s *nodeSeries, cs, ds float64) {
 	return s, cs, ds
 }
 
+// tableCDD is tableCD with the derivatives c′(z), d′(z) of the phase
+// series, summed in the same Horner pass.
+func tableCDD(zd dd) (s *nodeSeries, cs, ds, cp, dp float64) {
+	z := zd.hi
+	j := int(math.Round((z - airyZMin) / airyStep))
+	j = min(max(j, 0), len(series)-1)
+	s = &series[j]
+	d := (z - s.z) + zd.lo
+	nt := s.nt
+	cs, ds = s.c[nt-1], s.d[nt-1]
+	for k := nt - 2; k >= 0; k-- {
+		cp = cp*d + cs
+		dp = dp*d + ds
+		cs = cs*d + s.c[k]
+		ds = ds*d + s.d[k]
+	}
+	return s, cs, ds, cp, dp
+}
+
 // phase returns the continuous phase Θ(z) = atan2(Ai(z), Bi(z)), Θ(0) = π/6
 // (DLMF 9.8.4, there written θ), and p(z) = 1/(π M²(z)) = −Θ′(z)
 // (DLMF 9.8.14). For z ≥ posStart, Θ underflows to 0 once

@@ -76,8 +76,12 @@ type fpoint struct {
 type layerScale struct{ mu, f, s, c float64 }
 
 func newLayerScale(mu, f float64) layerScale {
-	a := math.Cbrt(math.Pi * math.Pi * mu)
-	cf := math.Cbrt(f)
+	return scaleFrom(mu, f, math.Cbrt(math.Pi*math.Pi*mu), math.Cbrt(f))
+}
+
+// scaleFrom is newLayerScale from a = (π²μ)^(1/3) and cf = f^(1/3), so
+// that the layers of a stack share their cube roots.
+func scaleFrom(mu, f, a, cf float64) layerScale {
 	return layerScale{mu: mu, f: f, s: a * cf, c: a / (cf * cf)}
 }
 
@@ -226,17 +230,17 @@ func (ls *layerScale) growth(a, b *fpoint, L float64) (gBi, gAi dual) {
 
 // modulusBC returns the physical log-derivative (s/μ) M′/M of the Airy
 // modulus M = √(Ai² + Bi²) at a forbidden point, with its η-derivative, and
-// ln P − where P = (s/μ)/(π M²) is the outgoing flux factor − split as
-// lnP = lnPrest − 2ζ. M′/M is the real part and −P the imaginary part of
+// the outgoing flux factor P = (s/μ)/(π M²) split as P = pre·e^(−2ζ)
+// (the logarithm is left to the caller that needs it). M′/M is the real part and −P the imaginary part of
 // the log-derivative of the outgoing wave Ai − iBi ∝ M e^(iθ) (DLMF 9.8.3,
 // 9.8.14: θ′ = −1/(π M²)).
-func (ls *layerScale) modulusBC(p *fpoint) (lam dual, lnPrest, zeta float64) {
+func (ls *layerScale) modulusBC(p *fpoint) (lam dual, pre, zeta float64) {
 	zeta = ls.zetaOf(p)
 	if p.asym {
 		// M′/M = Bi′/Bi up to (Ai/Bi)² < e^(−4ζ) < 1e-100.
 		u, _ := seriesEval(&posU, p.t, 1)
 		// π M² ≈ π Bi² = e^(2ζ) U²/√z and (s/μ)√z = κ/μ.
-		return p.lg, math.Log(p.kap/ls.mu) - 2*math.Log(u), zeta
+		return p.lg, p.kap / ls.mu / (u * u), zeta
 	}
 	// r = Ai/Bi = (scaled ratio) e^(−2ζ).
 	r := p.ai / p.bi * math.Exp(-2*p.zeta)
@@ -248,29 +252,23 @@ func (ls *layerScale) modulusBC(p *fpoint) (lam dual, lnPrest, zeta float64) {
 	m2 := p.bi * p.bi * (1 + r2) // e^(−2ζ) M²
 	inv := math.Exp(-4*p.zeta) / (math.Pi * math.Pi * m2 * m2)
 	lam = dual{lv, -(ls.s / ls.mu) * ls.c * (inv + p.z - L*L)}
-	return lam, math.Log(ls.s / (ls.mu * math.Pi * m2)), zeta
+	return lam, ls.s / (ls.mu * math.Pi * m2), zeta
 }
 
 // modulusTable is [layerScale.modulusBC] for 0 ≤ z < posStart, from the
 // phase series of the node table (see airy.go): with c(z), d(z) the
 // rotated solutions about the nearest node j, c² + d² = M_j² M² and
 // cc′ + dd′ = M_j² M M′, so M′/M and M² need two Horner sums and no
-// exponential. ζ is returned as 0 (lnPrest is then ln P itself).
-func (ls *layerScale) modulusTable(z float64) (lam dual, lnPrest, zeta float64) {
-	s, cs, ds := tableCD(dd{z, 0})
-	d := z - s.z
-	var cp, dp float64
-	for k := s.nt - 1; k >= 1; k-- {
-		cp = cp*d + float64(k)*s.c[k]
-		dp = dp*d + float64(k)*s.d[k]
-	}
+// exponential. ζ is returned as 0 (pre is then P itself).
+func (ls *layerScale) modulusTable(z float64) (lam dual, pre, zeta float64) {
+	s, cs, ds, cp, dp := tableCDD(dd{z, 0})
 	q := cs*cs + ds*ds
 	m2 := q / s.m2
 	mp := (cs*cp + ds*dp) / q
 	sm := ls.s / ls.mu
 	// d/dη (s/μ)M′/M = −(s/μ)c (M″/M − (M′/M)²), M″/M = 1/(π²M⁴) + z.
 	lam = dual{sm * mp, -sm * ls.c * (1/(math.Pi*math.Pi*m2*m2) + z - mp*mp)}
-	return lam, math.Log(sm / (math.Pi * m2)), 0
+	return lam, sm / (math.Pi * m2), 0
 }
 
 // aiTable returns the physical log-derivative (s/μ)Ai′/Ai and its

@@ -30,8 +30,10 @@ import (
 //     whose coefficients obey (k+2)(k+1) c_(k+2) = λ c_k + π²μf c_(k−1)
 //     (DLMF 9.2.1 in these variables); steps are short enough
 //     (|h|·max(√|λ|, (π²μf)^(1/3)) ≤ stepTheta) that a step holds at most
-//     one zero of φ and the series needs about 20 terms. At f → 0 this is
-//     the zero-field transfer.
+//     one zero of φ and the series needs about 20 terms (across a stretch
+//     forbidden throughout, while levels are solved, |h|·√|λ| may reach
+//     2·stepTheta, about 30 terms). At f → 0 this is the zero-field
+//     transfer.
 //   - f > 0 across a thick forbidden part (ζ grows by 20 or more): the
 //     growing Airy solution alone (the decaying one is below e^(−40) of
 //     it at the far end), from the log-derivatives of Ai and Bi at both
@@ -189,8 +191,9 @@ var taylorInv, taylorK = func() (inv, kk [maxTaylor]float64) {
 }()
 
 // taylorPart carries st from x0 to x1 (either direction) through part of a
-// layer with edge v and mass mu at field f ≥ 0, in Taylor steps.
-func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg segInfo) {
+// layer with edge v and mass mu at field f > 0, in Taylor steps; s is the
+// layer's Airy scale (π²μf)^(1/3) (layerScale.s).
+func taylorPart(st *rstate, x0, x1, v, mu, f, eta, s float64, rec recorder, seg segInfo) {
 	L := x1 - x0
 	if L == 0 {
 		return
@@ -199,7 +202,17 @@ func taylorPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg seg
 	q0 := v + f*(x0-0.5) - eta
 	q1 := v + f*(x1-0.5) - eta
 	lmax := p2 * mu * max(math.Abs(q0), math.Abs(q1))
-	scale := max(math.Sqrt(lmax), math.Cbrt(p2*mu*f))
+	kscale := math.Sqrt(lmax)
+	if rec == nil && q0 >= 0 && q1 >= 0 {
+		// Forbidden throughout (q is linear): φ has at most one zero
+		// there whatever the step, and the terms of a step twice as
+		// long (about 30) fall like those of cosh, so that the step
+		// loses to cancellation what the two short ones would
+		// together. A recorded wavefunction keeps the short pieces
+		// its samples and norm integrals are made for.
+		kscale /= 2
+	}
+	scale := max(kscale, s)
 	nf := math.Ceil(math.Abs(L) * scale / stepTheta)
 	if !(nf <= maxSteps) || st.steps+int(nf) > maxSteps || st.over {
 		st.over = true
@@ -234,7 +247,7 @@ func allowedPart(st *rstate, x0, x1, v, mu, f, eta float64, rec recorder, seg se
 		milnePart(st, x0, x1, v, mu, f, eta, &ls)
 		return
 	}
-	taylorPart(st, x0, x1, v, mu, f, eta, rec, seg)
+	taylorPart(st, x0, x1, v, mu, f, eta, ls.s, rec, seg)
 }
 
 // zeroFieldLayer carries st across a whole layer of width w (w < 0 for
@@ -456,12 +469,31 @@ func newCalc(st tiltwell.Stack, f float64) calc {
 	af, mir := tiltwell.Fold(f)
 	c := calc{st: st, n: st.Len(), f: af, mirror: mir}
 	if af > 0 {
-		for j := range min(c.n, cachedScales) {
-			_, _, _, mu := c.layer(j)
-			c.scales[j] = newLayerScale(mu, af)
+		// One cube root of f, and one of π²μ per mass (the layers
+		// repeat a few).
+		cf := math.Cbrt(af)
+		var roots [cachedScales]float64 // (π²μ)^(1/3) of the cached layers
+		scaleOf := func(i int) layerScale {
+			_, _, _, mu := c.layer(i)
+			a := math.NaN()
+			for j := range min(i, cachedScales) {
+				if c.scales[j].mu == mu {
+					a = roots[j]
+					break
+				}
+			}
+			if math.IsNaN(a) {
+				a = math.Cbrt(math.Pi * math.Pi * mu)
+			}
+			if i < cachedScales {
+				roots[i] = a
+			}
+			return scaleFrom(mu, af, a, cf)
 		}
-		_, _, _, mu := c.layer(c.n - 1)
-		c.scales[cachedScales] = newLayerScale(mu, af)
+		for j := range min(c.n, cachedScales) {
+			c.scales[j] = scaleOf(j)
+		}
+		c.scales[cachedScales] = scaleOf(c.n - 1)
 	}
 	return c
 }
@@ -532,15 +564,15 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 		if xt > lo {
 			// An allowed stretch and a thin forbidden one.
 			if dir > 0 {
-				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
-				taylorPart(st, xt, hi, v, mu, f, eta, rec, seg)
+				allowedPart(st, lo, xt, v, mu, f, eta, rec, seg, ls, c.taylorOnly)
+				taylorPart(st, xt, hi, v, mu, f, eta, ls.s, rec, seg)
 			} else {
-				taylorPart(st, hi, xt, v, mu, f, eta, rec, seg)
-				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, c.scale(j), c.taylorOnly)
+				taylorPart(st, hi, xt, v, mu, f, eta, ls.s, rec, seg)
+				allowedPart(st, xt, lo, v, mu, f, eta, rec, seg, ls, c.taylorOnly)
 			}
 			return
 		}
-		taylorPart(st, x0, x1, v, mu, f, eta, rec, seg)
+		taylorPart(st, x0, x1, v, mu, f, eta, ls.s, rec, seg)
 		return
 	}
 	a, b := ls.forb(qlo), ls.forb(qhi)
@@ -548,7 +580,7 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	seg.kind, seg.ls, seg.a, seg.b, seg.la, seg.lb = segThick, ls, a, b, xt, hi
 	if dir > 0 {
 		if xt > lo {
-			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
+			allowedPart(st, lo, xt, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, ls, c.taylorOnly)
 		}
 		if rec != nil {
 			seg.to = hi
@@ -563,6 +595,6 @@ func (c *calc) cross(st *rstate, j, dir int, eta float64, rec recorder) {
 	}
 	thickLeft(st, &a, &b, gAi)
 	if xt > lo {
-		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, c.scale(j), c.taylorOnly)
+		allowedPart(st, xt, lo, v, mu, f, eta, rec, segInfo{layer: j, mu: mu, v: v}, ls, c.taylorOnly)
 	}
 }

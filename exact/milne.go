@@ -48,14 +48,7 @@ func milneAt(zd dd) milneEnd {
 		wm1 := negPoly(&negM, 1/(x.hi*x.hi*x.hi))
 		return milneEnd{theta: th, m2: w / (math.Pi * sx.hi), mp: 0.25/x.hi - dw/(2*w), kz: -x.hi * wm1 * (w + 1) / (w * w)}
 	}
-	s, cs, ds := tableCD(zd)
-	d := (z - s.z) + zd.lo
-	nt := s.nt
-	var cp, dp float64
-	for k := nt - 1; k >= 1; k-- {
-		cp = cp*d + float64(k)*s.c[k]
-		dp = dp*d + float64(k)*s.d[k]
-	}
+	s, cs, ds, cp, dp := tableCDD(zd)
 	q := cs*cs + ds*ds
 	// c² + d² = M_j² M², cc′ + dd′ = M_j² M M′.
 	m2 := q / s.m2

@@ -1,6 +1,7 @@
 package exact
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sync"
@@ -24,13 +25,13 @@ const narrowLimit = 1e-5
 // leftBC returns the log-derivative w/φ at interface 1 that the solution
 // has coming from the left: the decaying exponential at f = 0, and the
 // real part (s/μ)M′/M of the outgoing wave's log-derivative at f > 0; with,
-// for f > 0, ln P = lnPrest − 2ζ of the flux factor P (the imaginary part
-// is −P).
-func (c *calc) leftBC(eta float64) (lam dual, lnPrest, zeta float64) {
+// for f > 0, the flux factor P = pre·e^(−2ζ) (the imaginary part is −P;
+// pre = 1 and ζ = 0 at f = 0).
+func (c *calc) leftBC(eta float64) (lam dual, pre, zeta float64) {
 	_, hi, v, mu := c.layer(0)
 	if c.f == 0 {
 		k := math.Pi * math.Sqrt(mu*max(v-eta, 0))
-		return dual{k / mu, -math.Pi * math.Pi / (2 * k)}, 0, 0
+		return dual{k / mu, -math.Pi * math.Pi / (2 * k)}, 1, 0
 	}
 	q := max(v+c.f*(hi-0.5)-eta, 0)
 	ls := c.scale(0)
@@ -65,6 +66,16 @@ type evalResult struct {
 	D, Dp, errD float64
 	// The left and right solutions at the matching interface.
 	L, R rstate
+	// The left boundary condition at this η (leftBC), when hasBC: the
+	// escape width reuses it.
+	bc    leftEdge
+	hasBC bool
+}
+
+// leftEdge is what leftBC returns at one η.
+type leftEdge struct {
+	lam       dual
+	pre, zeta float64
 }
 
 // angle returns the line angle of (w, Sφ) in [0, π) and its η-derivative.
@@ -82,8 +93,9 @@ func angle(st *rstate, S float64) (a, ad float64) {
 // eval evaluates the level equation at η with matching interface m and
 // Prüfer scale S.
 func (c *calc) eval(eta float64, m int, S float64) evalResult {
-	lam, _, _ := c.leftBC(eta)
-	res := evalResult{L: rstate{u: dual{1, 0}, w: lam}}
+	var bc leftEdge
+	bc.lam, bc.pre, bc.zeta = c.leftBC(eta)
+	res := evalResult{L: rstate{u: dual{1, 0}, w: bc.lam}}
 	for j := 1; j < m; j++ {
 		c.cross(&res.L, j, 1, eta, nil)
 	}
@@ -91,7 +103,9 @@ func (c *calc) eval(eta float64, m int, S float64) evalResult {
 	for j := c.n - 2; j >= m; j-- {
 		c.cross(&res.R, j, -1, eta, nil)
 	}
-	return c.match(res.L, res.R, S)
+	res = c.match(res.L, res.R, S)
+	res.bc, res.hasBC = bc, true
+	return res
 }
 
 // bounds returns, for level n: the lowest band edge vmin of the problem on
@@ -148,14 +162,15 @@ const maxSelect = 64
 type allEval struct {
 	L, R [maxSelect]rstate
 	S    [maxSelect]float64
+	bc   leftEdge
 }
 
 // evalAll evaluates the level equation at every inner interface at once:
 // the left solution is carried rightward and the right one leftward
 // through all inner layers. The Prüfer scales S are those at η = ref.
 func (c *calc) evalAll(a *allEval, eta, ref float64) {
-	lam, _, _ := c.leftBC(eta)
-	a.L[1] = rstate{u: dual{1, 0}, w: lam}
+	a.bc.lam, a.bc.pre, a.bc.zeta = c.leftBC(eta)
+	a.L[1] = rstate{u: dual{1, 0}, w: a.bc.lam}
 	for i := 2; i < c.n; i++ {
 		a.L[i] = a.L[i-1]
 		c.cross(&a.L[i], i-1, 1, eta, nil)
@@ -212,6 +227,7 @@ func (c *calc) flattest(a *allEval, target, slack float64) (evalResult, int) {
 		m = c.matchPoint()
 		res = c.match(a.L[m], a.R[m], a.S[m])
 	}
+	res.bc, res.hasBC = a.bc, true
 	return res, m
 }
 
@@ -292,9 +308,17 @@ func wronskSlope(r *evalResult) float64 {
 // share their roots and the count of levels below η) and the shortest
 // Newton step is taken: a level far from an interface makes the
 // equation there steep, while it is smooth where the level lives.
-func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, error) {
+//
+// With checkHi, hi is the confinement ceiling and ghi a stand-in: D is
+// evaluated there only when an Illinois step needs the bracket while hi is
+// still the ceiling, and solveReal returns errAboveCeiling if D does not
+// exceed (n−1)π there by more than its rounding. A root reached by Newton
+// steps needs no such check: D increases with η, so a root below the
+// ceiling is the level.
+func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64, checkHi bool) (realLevel, error) {
 	target := float64(n-1) * math.Pi
 	lo0, w0 := lo, hi-lo
+	hi0 := hi
 	eta := guess
 	if !(eta > lo && eta < hi) {
 		eta = mid(lo, hi)
@@ -326,13 +350,30 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			return 0, false
 		}
 		next := eta - g/dp
-		if u := (eta - lo0) / w0; u > 0 && u < 1 {
-			th := math.Asin(math.Sqrt(u))
-			dth := -g / (dp * w0 * math.Sin(2*th))
-			if th1 := th + dth; th1 > 0 && th1 < math.Pi/2 {
-				// Δη = w₀ sin(θ₁ + θ) sin(θ₁ − θ), without
-				// cancellation.
-				next = eta + w0*math.Sin(th1+th)*math.Sin(th1-th)
+		if u, v := (eta-lo0)/w0, (hi0-eta)/w0; u > 0 && v > 0 {
+			// sin θ, cos θ and sin 2θ, cos 2θ without θ itself.
+			sn, cs := math.Sqrt(u), math.Sqrt(v)
+			s2, c2 := 2*sn*cs, v-u
+			dth := -g / (dp * w0 * s2)
+			// θ₁ = θ + Δθ must stay in (0, π/2); θ ≥ sin θ and
+			// π/2 − θ ≥ cos θ settle most steps without θ.
+			in := dth > -sn && dth < cs
+			if !in {
+				th := math.Atan2(sn, cs)
+				in = th+dth > 0 && th+dth < math.Pi/2
+			}
+			if in {
+				// Δη = w₀ sin(θ₁ + θ) sin(θ₁ − θ) = w₀ sin(2θ + Δθ)
+				// sin Δθ, without cancellation.
+				var sd, cd float64
+				if t := dth * dth; t < 1e-6 {
+					// The series, good to 1e-13 of the step
+					// (the iteration needs far less).
+					sd, cd = dth*(1-t/6), 1-t/2
+				} else {
+					sd, cd = math.Sincos(dth)
+				}
+				next = eta + w0*(s2*cd+c2*sd)*sd
 			}
 		}
 		return next, next > lo && next < hi
@@ -357,6 +398,7 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			if !ok {
 				r = c.match(ae.L[m], ae.R[m], ae.S[m])
 			}
+			r.bc, r.hasBC = ae.bc, true
 			S = ae.S[m]
 			full = false
 			havePrev = false
@@ -428,7 +470,19 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 			}
 		}
 		// Illinois step between the bracket ends, and a fresh look at
-		// where to match.
+		// where to match. Its top end must hold a true value of D: at an
+		// unchecked ceiling, evaluate it now.
+		if checkHi && hi == hi0 {
+			checkHi = false
+			rhi, err := c.evalChecked(n, hi, c.matchPoint())
+			if err != nil {
+				return realLevel{}, err
+			}
+			if !(rhi.D-target > rhi.errD) {
+				return realLevel{}, errAboveCeiling
+			}
+			ghi = rhi.D - target
+		}
 		full = sel
 		a, b, ga, gb := lo, hi, glo, ghi
 		switch {
@@ -453,6 +507,10 @@ func (c *calc) solveReal(n int, lo, hi, glo, ghi, guess float64) (realLevel, err
 	}
 	return realLevel{}, fmt.Errorf("exact: level %d at f = %g: %w", n, c.f, tiltwell.ErrNoConvergence)
 }
+
+// errAboveCeiling is solveReal's report that D does not reach the
+// level's target below the ceiling: the level is not confined.
+var errAboveCeiling = errors.New("exact: level above the ceiling")
 
 var allPool = sync.Pool{New: func() any { return new(allEval) }}
 

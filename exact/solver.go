@@ -164,17 +164,18 @@ const eps = 0x1p-52 // float64 machine epsilon, 2.22e-16
 // brute-force Runge–Kutta shooting at f > 0 agrees to 1e-15 in η_r (1e-11
 // for broad levels) and 1e-7 relative in Γ, its own limits.
 //
-// Speed (BenchmarkStackLevels, minima of three runs' CPU time on the
-// shared build machine): the lowest three levels of a finite well with
-// their widths in 1.8 µs at f = 0, 5.4 µs at f = 1 and 6.5–6.8 µs at
-// f = 2–3 (narrow, Γ ≤ 2e-7; two or three evaluations of the level
-// equation per level: the start, the zero-field level plus the Stark
-// shift of an infinite well of equivalent width, is off by 1e-3 to 5e-2
-// there), 18–25 µs where the third is broad (Γ = 0.014–0.13, complex
-// Newton); the same well clad in thin layers (five layers) takes 1.5
-// times as long at f = 0, 1.7 times at f = 1 and 1.8–1.9 times at
-// f = 2–3; a plain finite-difference solve of the three levels to 1e-6
-// takes 21–36 ms. Levels allocates nothing once dst has room.
+// Speed (BenchmarkStackLevels, minima of ten runs' CPU time on the
+// shared build machine; medians 2–5% higher): the lowest three levels of
+// a finite well with their widths in 1.5 µs at f = 0, 3.8 µs at f = 1 and
+// 4.8–4.9 µs at f = 2–3 (narrow, Γ ≤ 2e-7; two or three evaluations of
+// the level equation per level, the one at the confinement ceiling only
+// when the iteration needs the bracket: the start, the zero-field level
+// plus the Stark shift of an infinite well of equivalent width, is off by
+// 1e-3 to 5e-2 there), 14–20 µs where the third is broad (Γ =
+// 0.014–0.13, complex Newton); the same well clad in thin layers (five
+// layers) takes 1.6 times as long at f = 0 and 1.7 times at f = 1–3; a
+// plain finite-difference solve of the three levels to 1e-6 takes
+// 21–36 ms. Levels allocates nothing once dst has room.
 //
 // # Wavefunctions of solved levels
 //

@@ -882,3 +882,52 @@ func TestStackTransfersAgree(t *testing.T) {
 		}
 	}
 }
+
+// TestStackCeilingUnchecked starts levels whose bracket reaches the
+// confinement ceiling (Dirichlet bound not below it) from poor hints at
+// both ends of the bracket, so that the iteration needs the bracket and
+// evaluates the level equation at the ceiling only then: the level and
+// the confinement verdict must be those of the default start.
+func TestStackCeilingUnchecked(t *testing.T) {
+	t.Parallel()
+	checked := 0
+	for name, st := range testStacks(t) {
+		for _, f := range []float64{0.5, 2, 3, 6, 8, -4} {
+			c := newCalc(st, f)
+			floor := math.Inf(-1)
+			for n := 1; n <= 4; n++ {
+				ref, why, err := c.solveStackLevel(n, floor, math.NaN())
+				if err != nil {
+					t.Fatalf("%s f=%g n=%d: %v", name, f, n, err)
+				}
+				vmin, ec, ub := c.bounds(n)
+				lo := max(vmin, floor)
+				if ub >= ec && ec > lo {
+					checked++
+					w := ec - lo
+					for _, hint := range []float64{lo + 1e-6*w, ec - 1e-9*w} {
+						got, gwhy, err := c.solveStackLevel(n, floor, hint)
+						if err != nil {
+							t.Errorf("%s f=%g n=%d hint %g: %v", name, f, n, hint, err)
+							continue
+						}
+						if (gwhy == "") != (why == "") {
+							t.Errorf("%s f=%g n=%d hint %g: confinement %q, default start %q", name, f, n, hint, gwhy, why)
+							continue
+						}
+						if why == "" && math.Abs(got.lv.Energy-ref.lv.Energy) > got.lv.Err+ref.lv.Err {
+							t.Errorf("%s f=%g n=%d hint %g: η_r %.17g ± %.2g, default start %.17g ± %.2g", name, f, n, hint, got.lv.Energy, got.lv.Err, ref.lv.Energy, ref.lv.Err)
+						}
+					}
+				}
+				if why != "" {
+					break
+				}
+				floor = ref.real.eta
+			}
+		}
+	}
+	if checked == 0 {
+		t.Fatal("no level had its bracket up to the ceiling")
+	}
+}

@@ -21,7 +21,6 @@ type notConfined string
 // solveStackLevel solves level n of c above floor (the level below, or
 // −Inf) from the starting hint (NaN for none).
 func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfined, error) {
-	target := float64(n-1) * math.Pi
 	vmin, ec, ub := c.bounds(n)
 	lo := max(vmin, floor)
 	hi := min(ec, ub)
@@ -36,28 +35,23 @@ func (c *calc) solveStackLevel(n int, floor, hint float64) (stackLevel, notConfi
 		guess = mid(lo, hi)
 	}
 	// D − (n−1)π at the top of the bracket: below the Dirichlet bound a
-	// level is certain (min–max), and only a stand-in is needed; at the
-	// ceiling it must be evaluated, and a level within rounding of the
-	// ceiling is not confined.
+	// level is certain (min–max), and only a stand-in is needed. At the
+	// ceiling the level is not certain, but D is increasing: a root that
+	// Newton steps reach inside the bracket is the level. solveReal
+	// evaluates D at the ceiling only when it needs the bracket (a
+	// level within rounding of the ceiling is not confined).
 	ghi := math.Pi / 2
-	if hi == ec {
-		m := c.matchPoint()
-		rhi, err := c.evalChecked(n, hi, m)
-		if err != nil {
-			return stackLevel{}, "", err
-		}
-		if !(rhi.D-target > rhi.errD) {
-			return stackLevel{}, "above the barrier", nil
-		}
-		ghi = rhi.D - target
-	}
+	checkHi := !(ub < ec)
 	// D is −π exactly at the level below; below the lowest band edge it
 	// lies in (−π, 0).
 	glo := -math.Pi
 	if floor < vmin {
 		glo = -(float64(n) - 0.5) * math.Pi
 	}
-	rl, err := c.solveReal(n, lo, hi, glo, ghi, guess)
+	rl, err := c.solveReal(n, lo, hi, glo, ghi, guess, checkHi)
+	if err == errAboveCeiling {
+		return stackLevel{}, "above the barrier", nil
+	}
 	if err != nil {
 		return stackLevel{}, "", err
 	}
@@ -148,7 +142,11 @@ func (c *calc) escape(out *stackLevel) (notConfined, error) {
 	}
 	G := v.u.v*R.w.v - v.w.v*R.u.v
 	Gd := v.u.d*R.w.v + v.u.v*R.w.d - v.w.d*R.u.v - v.w.v*R.u.d
-	lam, lnPrest, zetaI := c.leftBC(rl.evalEta)
+	bc := rl.res.bc
+	if !rl.res.hasBC {
+		bc.lam, bc.pre, bc.zeta = c.leftBC(rl.evalEta)
+	}
+	lam, lnPrest, zetaI := bc.lam, math.Log(bc.pre), bc.zeta
 	_, _, _, mu0 := c.layer(0)
 	lnScale := lnPrest - 2*zetaI + v.lg - L.lg
 	ratio := -2 * G / Fp // Γ = ratio · e^lnScale
@@ -408,7 +406,15 @@ func (c *calc) model(n int) float64 {
 	if !(k > lo && k < hi) {
 		k = 0.5 * (lo + hi)
 	}
-	// A start good to about 1e-8 is all the solver needs.
+	// A start good to about 1e-8 is all the solver needs. Where the
+	// Stark shift (about C_n f² for the infinite well, secondOrder) is
+	// above 1e-4, the shift's own error is far larger than that, and a
+	// Newton step below 1e-4 k, whose result is good to about 1e-8, is
+	// taken without evaluating g again to confirm it.
+	short := 1e-8
+	if math.Abs(secondOrder(n))*c.f*c.f > 1e-4 {
+		short = 1e-4
+	}
 	for range 8 {
 		v, d, ok := g(k)
 		if !ok {
@@ -423,7 +429,7 @@ func (c *calc) model(n int) float64 {
 			lo = k
 		}
 		nk := k - v/d
-		if math.Abs(nk-k) < 1e-8*k {
+		if math.Abs(nk-k) < short*k {
 			// Converged (a step this short may round onto the end of
 			// the bracket it came from; bisecting away would undo it).
 			k = nk
@@ -444,7 +450,9 @@ func (c *calc) model(n int) float64 {
 		return math.NaN()
 	}
 	nn := float64(n) * float64(n)
-	alpha := math.Cbrt(math.Pi * math.Pi * fl)
+	// α = (π² f L³)^(1/3) = L (π²f)^(1/3), the reference layer's scale
+	// (its mass ratio is 1).
+	alpha := L * c.scale(r).s
 	tri := -fl/2 - airyZero(n)*(alpha*alpha/(math.Pi*math.Pi))
 	inf := guess(fl, alpha, n, tri, math.NaN(), max(nn-fl/2, tri), nn+fl/2)
 	return eta0 + (inf-nn)/(L*L)
