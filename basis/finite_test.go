@@ -532,7 +532,11 @@ func TestFiniteConcurrent(t *testing.T) {
 
 // FuzzFiniteLevels solves random finite wells at random fields: the
 // levels must come with finite estimates, in increasing order, below the
-// ceiling of the stack, or a documented error.
+// ceiling of the stack, or a documented error. The basis size is fixed
+// (16 k): with the automatic size a call took 35–110 ms on average over
+// barriers to 1000 E₁ and mass ratios 0.05–20 (up to 0.9 s), too slow for
+// CI's 2000 executions; the automatic size is held to the exact solver by
+// the tests above.
 func FuzzFiniteLevels(f *testing.F) {
 	f.Add(4.3, 1.37, 4.3, 1.37, 1.0, 3, 0.0)
 	f.Add(50.0, 2.0, 2.0, 1.0, 7.0, 5, 0.5)
@@ -545,7 +549,7 @@ func FuzzFiniteLevels(f *testing.F) {
 		if k < 1 || k > 6 || !(math.Abs(fld) <= 100) || !(box >= 0 && box <= 4) {
 			return
 		}
-		ls, err := Solver{Stack: st, Box: box}.Levels(nil, fld, k)
+		ls, err := Solver{Stack: st, Box: box, Size: 16 * k}.Levels(nil, fld, k)
 		if _, ok := tiltwell.Confined(err); err != nil && !ok {
 			if !errors.Is(err, tiltwell.ErrNoConvergence) {
 				t.Fatalf("%v f=%g k=%d: %v", st, fld, k, err)
