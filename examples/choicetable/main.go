@@ -116,6 +116,31 @@ type cell struct {
 	cost         time.Duration
 }
 
+// errorTable writes one table of worst errors, a row per method and a
+// column per range: the true error and the method's own estimate that
+// pick returns from a cell, "reference (estimate)" for the exact solver
+// and "outside" where the method refused or flagged a field.
+func errorTable(w io.Writer, header, rule string, cands []tiltwell.Candidate, cells [][]cell, pick func(cell) (trueErr, est float64)) {
+	fmt.Fprintln(w, header)
+	fmt.Fprintln(w, rule)
+	for ci, c := range cands {
+		var b strings.Builder
+		fmt.Fprintf(&b, "| %s |", c.Name)
+		for _, cl := range cells[ci] {
+			trueErr, est := pick(cl)
+			switch {
+			case cl.outside:
+				b.WriteString(" outside |")
+			case c.Name == "exact":
+				fmt.Fprintf(&b, " reference (%s) |", sci(est))
+			default:
+				fmt.Fprintf(&b, " %s (%s) |", sci(trueErr), sci(est))
+			}
+		}
+		fmt.Fprintln(w, b.String())
+	}
+}
+
 // run writes the three tables for k levels over the given ranges of |f|
 // and tolerances.
 func run(w io.Writer, k int, ranges, tolerances []float64, st tiltwell.Stack) error {
@@ -162,43 +187,11 @@ func run(w io.Writer, k int, ranges, tolerances []float64, st tiltwell.Stack) er
 	} else {
 		fmt.Fprintf(w, "Finite well %v. Worst error of the %d lowest levels over each range of reduced fields, in E₁: true error against `exact.Solver{Stack: …}` (the method's own estimate). \"outside\" marks a method that refuses or flags part of the range.\n\n", st, k)
 	}
-	fmt.Fprintln(w, header)
-	fmt.Fprintln(w, rule)
-	for ci, c := range cands {
-		var b strings.Builder
-		fmt.Fprintf(&b, "| %s |", c.Name)
-		for _, cl := range cells[ci] {
-			switch {
-			case cl.outside:
-				b.WriteString(" outside |")
-			case c.Name == "exact":
-				fmt.Fprintf(&b, " reference (%s) |", sci(cl.est))
-			default:
-				fmt.Fprintf(&b, " %s (%s) |", sci(cl.trueErr), sci(cl.est))
-			}
-		}
-		fmt.Fprintln(w, b.String())
-	}
+	errorTable(w, header, rule, cands, cells, func(cl cell) (float64, float64) { return cl.trueErr, cl.est })
 
 	if !st.Infinite() {
 		fmt.Fprintf(w, "\nWorst error of the escape widths Γ, in E₁: true error (the method's own estimate). A method that reports Γ = 0 puts its estimate of the missing width in the estimate.\n\n")
-		fmt.Fprintln(w, header)
-		fmt.Fprintln(w, rule)
-		for ci, c := range cands {
-			var b strings.Builder
-			fmt.Fprintf(&b, "| %s |", c.Name)
-			for _, cl := range cells[ci] {
-				switch {
-				case cl.outside:
-					b.WriteString(" outside |")
-				case c.Name == "exact":
-					fmt.Fprintf(&b, " reference (%s) |", sci(cl.gammaEst))
-				default:
-					fmt.Fprintf(&b, " %s (%s) |", sci(cl.gammaErr), sci(cl.gammaEst))
-				}
-			}
-			fmt.Fprintln(w, b.String())
-		}
+		errorTable(w, header, rule, cands, cells, func(cl cell) (float64, float64) { return cl.gammaErr, cl.gammaEst })
 	}
 
 	fmt.Fprintf(w, "\nTime per level, measured by `tiltwell.Choose` on the machine that ran `go run ./examples/choicetable`.\n\n")
