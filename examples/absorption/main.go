@@ -59,6 +59,7 @@ import (
 
 	"github.com/tiltwell/tiltwell"
 	"github.com/tiltwell/tiltwell/exact"
+	"github.com/tiltwell/tiltwell/examples/internal/catalog"
 )
 
 // usage is the text -h prints.
@@ -180,15 +181,11 @@ func parse(args []string) (options, error) {
 	return o, nil
 }
 
-// parseTransitions parses a list such as "e1-hh1,e2-lh1".
+// parseTransitions parses the -transitions list, such as "e1-hh1,e2-lh1".
 func parseTransitions(s string) ([]tiltwell.Transition, error) {
-	var ts []tiltwell.Transition
-	for _, p := range strings.Split(s, ",") {
-		t, err := tiltwell.ParseTransition(p)
-		if err != nil {
-			return nil, usageError{"-transitions: " + err.Error()}
-		}
-		ts = append(ts, t)
+	ts, err := catalog.Transitions(s)
+	if err != nil {
+		return nil, usageError{"-transitions: " + err.Error()}
 	}
 	return ts, nil
 }

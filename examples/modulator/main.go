@@ -222,15 +222,11 @@ func parseRange(flagName, s string) ([]float64, error) {
 	return out, nil
 }
 
-// parseTransitions parses a list such as "e1-hh1,e2-lh1".
+// parseTransitions parses the -transitions list, such as "e1-hh1,e2-lh1".
 func parseTransitions(s string) ([]tiltwell.Transition, error) {
-	var ts []tiltwell.Transition
-	for _, p := range strings.Split(s, ",") {
-		t, err := tiltwell.ParseTransition(p)
-		if err != nil {
-			return nil, usageError{"-transitions: " + err.Error()}
-		}
-		ts = append(ts, t)
+	ts, err := catalog.Transitions(s)
+	if err != nil {
+		return nil, usageError{"-transitions: " + err.Error()}
 	}
 	return ts, nil
 }
