@@ -191,30 +191,7 @@ func (fw *finiteWave) theta1() float64 {
 // quadrature, with panels no wider than one radian of phase or one Airy
 // length, cut 15 Airy lengths past a turning point inside the well.
 func (fw *finiteWave) wellNormSq() float64 {
-	gl := legendre16()
-	w := &fw.w
-	ell := 1 / fw.sw
-	end := min(1, (fw.e+15*w.ea)/w.f)
-	sum := 0.0
-	for a := 0.0; a < end; {
-		h := ell
-		if k := math.Pi * math.Sqrt(math.Abs(fw.e-w.f*a)); k*h > 1 {
-			h = 1 / k
-		}
-		b := min(a+h, end)
-		if end-b < 1e-3*h {
-			b = end
-		}
-		mid, half := (a+b)/2, (b-a)/2
-		p := 0.0
-		for i, t := range gl[0] {
-			v := fw.raw(mid + half*t)
-			p += gl[1][i] * v * v
-		}
-		sum += half * p
-		a = b
-	}
-	return sum
+	return panelNormSq(fw.raw, fw.e, fw.w.f, fw.w.ea, 1/fw.sw)
 }
 
 // tailLength returns the depth into the uphill barrier beyond which its

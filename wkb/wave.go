@@ -184,13 +184,22 @@ var legendre16 = sync.OnceValue(func() *[2][16]float64 {
 
 // normSq returns ∫₀¹ (φ/C)² dξ by composite Gauss–Legendre quadrature.
 func (w *wave) normSq() float64 {
-	gl := legendre16()
 	ell := 1 / math.Cbrt(math.Pi*math.Pi*w.f) // Airy length in ξ
-	end := min(1, (w.e+15*w.ea)/w.f)
+	return panelNormSq(w.raw, w.e, w.f, w.ea, ell)
+}
+
+// panelNormSq returns ∫₀^end raw(ξ)² dξ, end = min(1, (e + 15 ea)/f), by
+// composite 16-point Gauss–Legendre quadrature on panels no wider than
+// ell (an Airy length) or one radian of the phase √(e − fξ) π ξ: the
+// norm of a wavefunction of energy e in the tilt fξ, cut 15 Airy lengths
+// (ea in energy) past a turning point inside [0, 1].
+func panelNormSq(raw func(float64) float64, e, f, ea, ell float64) float64 {
+	gl := legendre16()
+	end := min(1, (e+15*ea)/f)
 	sum := 0.0
 	for a := 0.0; a < end; {
 		h := ell
-		if k := math.Pi * math.Sqrt(math.Abs(w.e-w.f*a)); k*h > 1 {
+		if k := math.Pi * math.Sqrt(math.Abs(e-f*a)); k*h > 1 {
 			h = 1 / k
 		}
 		b := min(a+h, end)
@@ -200,7 +209,7 @@ func (w *wave) normSq() float64 {
 		mid, half := (a+b)/2, (b-a)/2
 		p := 0.0
 		for i, t := range gl[0] {
-			v := w.raw(mid + half*t)
+			v := raw(mid + half*t)
 			p += gl[1][i] * v * v
 		}
 		sum += half * p
